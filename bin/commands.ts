@@ -1,0 +1,116 @@
+/** The command-line commands: each turns a validated project into output and an exit code. */
+import { analyseProject, effectiveSettings, type AnalysisOverrides } from '../core/analysis/modal-analysis'
+import { convergenceStudy, type ConvergenceStudy } from '../core/analysis/convergence'
+import { modalSummaryCsv, solveDocument } from '../core/analysis/modal-summary'
+import { estimateDegreesOfFreedom } from '../core/model/project-schema'
+import { LIMITS, type ElementOrder, type MassMatrixKind, type Project } from '../core/model/project'
+import type { CliIo, CliValues } from './cli'
+import { UsageError } from './cli'
+
+export interface CommandContext {
+  readonly project: Project
+  readonly file: string
+  readonly values: CliValues
+  readonly overrides: AnalysisOverrides
+  readonly io: CliIo
+}
+
+export interface Command {
+  readonly summary: string
+  readonly usage: string
+  run(context: CommandContext): Promise<number>
+}
+
+/** The project as the flags leave it; refuses a mesh beyond the solver's limit. */
+function projectWithOverrides(project: Project, overrides: AnalysisOverrides): Project {
+  const settings = effectiveSettings(project, overrides)
+  const adjusted = { ...project, analysis: settings }
+  const dofs = estimateDegreesOfFreedom(adjusted)
+  if (dofs > LIMITS.maxDegreesOfFreedom) {
+    throw new UsageError(`--elements-per-segment gives about ${dofs.toExponential(2)} unknowns; Rodwave solves at most ${LIMITS.maxDegreesOfFreedom.toLocaleString('en-US')}`)
+  }
+  return adjusted
+}
+
+const solve: Command = {
+  summary: 'modes, reference comparison, effective mass, resonance check',
+  usage: '[--json | --csv] [--mass K] [--order 1|2] [--elements-per-segment N] [--modes N] [--fail-on-conflict]',
+  async run({ project, values, overrides, io }) {
+    if (values.json && values.csv) throw new UsageError('choose one of --json and --csv')
+    const analysis = analyseProject(projectWithOverrides(project, overrides), overrides)
+    if (values.csv) io.stdout(modalSummaryCsv(analysis))
+    else io.stdout(`${JSON.stringify(solveDocument(analysis), null, 2)}\n`)
+    if (!analysis.sturm.passed) io.stderr('rodwave: warning: the Sturm count does not confirm that no mode was missed\n')
+    const conflicts = analysis.resonance.filter((p) => p.status === 'conflict')
+    if (values['fail-on-conflict'] && conflicts.length > 0) {
+      io.stderr(`rodwave: ${conflicts.length} mode–excitation pair(s) inside the ${(100 * project.margin).toFixed(1)} % margin\n`)
+      return 3
+    }
+    return 0
+  },
+}
+
+const converge: Command = {
+  summary: 'frequencies against mesh density for each mass matrix and element order, with errors and observed orders',
+  usage: '[--json | --csv] [--mass K] [--order 1|2] [--modes N]',
+  async run({ project, values, overrides, io }) {
+    if (values.json && values.csv) throw new UsageError('choose one of --json and --csv')
+    if (values['elements-per-segment'] !== undefined) throw new UsageError('converge runs its own mesh densities; --elements-per-segment does not apply')
+    const study = convergenceStudy(project, {
+      modes: overrides.modes ?? project.analysis.modes,
+      ...(overrides.elementOrder ? { orders: [overrides.elementOrder] } : {}),
+      ...(overrides.mass ? { masses: [overrides.mass] } : {}),
+    })
+    if (values.json) io.stdout(`${JSON.stringify(study, null, 2)}\n`)
+    else if (values.csv) io.stdout(convergenceCsv(study))
+    else io.stdout(convergenceText(project, study))
+    return 0
+  },
+}
+
+export const COMMANDS: Record<string, Command> = { solve, converge }
+
+function seriesName(order: ElementOrder, mass: MassMatrixKind): string {
+  return `${order === 1 ? '2-node' : '3-node'} elements, ${mass} mass`
+}
+
+function convergenceCsv(study: ConvergenceStudy): string {
+  const lines = ['element_order,mass,elements_per_segment,dofs,mode,frequency_hz,reference_hz,error_vs_reference']
+  for (const s of study.series) {
+    for (const p of s.points) {
+      p.frequenciesHz.forEach((f, m) => {
+        const ref = study.referenceHz[m]
+        lines.push([s.elementOrder, s.mass, p.elementsPerSegment, p.dofs, m + 1, f, ref ?? '', p.errors[m] ?? ''].join(','))
+      })
+    }
+  }
+  return lines.join('\r\n') + '\r\n'
+}
+
+function convergenceText(project: Project, study: ConvergenceStudy): string {
+  const out: string[] = []
+  out.push(`Mesh convergence${project.title ? ` — ${project.title}` : ''}`)
+  out.push(
+    study.referenceMethod
+      ? `Reference (exact): ${study.referenceHz.map((f, i) => `f${i + 1} = ${f.toPrecision(10)} Hz`).join(', ')}`
+      : 'No exact reference: compare with the Richardson estimates.',
+  )
+  const modes = study.modes
+  for (const s of study.series) {
+    out.push('')
+    out.push(seriesName(s.elementOrder, s.mass))
+    out.push(['elem/seg'.padStart(8), 'unknowns'.padStart(9), ...Array.from({ length: modes }, (_, m) => `error f${m + 1}`.padStart(11))].join(' '))
+    for (const p of s.points) {
+      out.push(
+        [
+          String(p.elementsPerSegment).padStart(8),
+          String(p.dofs).padStart(9),
+          ...p.errors.map((e) => (e === null ? '—' : e.toExponential(2)).padStart(11)),
+        ].join(' '),
+      )
+    }
+    out.push(['observed order'.padStart(18), ...s.observedOrder.map((o) => (o === null ? '—' : o.toFixed(2)).padStart(11))].join(' '))
+    out.push(['Richardson (Hz)'.padStart(18), ...s.extrapolatedHz.map((f) => (f === null ? '—' : f.toPrecision(9)).padStart(11))].join(' '))
+  }
+  return out.join('\n') + '\n'
+}

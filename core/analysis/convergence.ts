@@ -1,0 +1,129 @@
+/**
+ * Mesh convergence: frequencies against mesh density for each mass matrix and element
+ * order, the error against the exact reference, and the observed order of convergence
+ * p = log(e_coarse / e_fine) / log(h_coarse / h_fine) between successive meshes.
+ * Richardson extrapolation from the three finest meshes, f* = f₁ + (f₁ − f₂)/(r^p − 1)
+ * with p from the same three (L. F. Richardson, Phil. Trans. R. Soc. A 210 (1911);
+ * any numerical-analysis text, from memory), estimates the limit where no exact
+ * solution is known and serves as a check where one is.
+ */
+import type { ElementOrder, MassMatrixKind, Project } from '../model/project'
+import { exactReference } from '../exact/reference'
+import { analyseProject } from './modal-analysis'
+
+export interface ConvergencePoint {
+  readonly elementsPerSegment: number
+  readonly dofs: number
+  readonly frequenciesHz: number[]
+  /** (f − f_ref)/f_ref per mode, null without a reference. */
+  readonly errors: (number | null)[]
+}
+
+export interface ConvergenceSeries {
+  readonly elementOrder: ElementOrder
+  readonly mass: MassMatrixKind
+  readonly points: ConvergencePoint[]
+  /** Observed order per mode from the finest pair of meshes whose errors stand above round-off. */
+  readonly observedOrder: (number | null)[]
+  /** Richardson estimate of the limit per mode from the three finest meshes. */
+  readonly extrapolatedHz: (number | null)[]
+}
+
+export interface ConvergenceStudy {
+  readonly modes: number
+  readonly referenceHz: number[]
+  readonly referenceMethod: 'exact' | null
+  readonly series: ConvergenceSeries[]
+}
+
+export interface ConvergenceOptions {
+  readonly modes?: number
+  /** Mesh densities, elements per segment (default 1, 2, 4, … 1024). */
+  readonly densities?: readonly number[]
+  readonly orders?: readonly ElementOrder[]
+  readonly masses?: readonly MassMatrixKind[]
+  /** Meshes with more unknowns than this are skipped (default 200 000). */
+  readonly maxDofs?: number
+  /** Called after each solve with the fraction done; return false to stop early. */
+  readonly onProgress?: (fraction: number) => boolean | void
+}
+
+/** Relative errors below this are round-off, not discretisation error. */
+const ROUND_OFF = 1e-12
+
+export const DEFAULT_DENSITIES = [1, 2, 4, 8, 16, 32, 64, 128, 256, 512, 1024]
+
+export function convergenceStudy(project: Project, options: ConvergenceOptions = {}): ConvergenceStudy {
+  const modes = options.modes ?? project.analysis.modes
+  const densities = options.densities ?? DEFAULT_DENSITIES
+  const orders = options.orders ?? [1, 2]
+  const masses = options.masses ?? ['consistent', 'lumped', 'mixed']
+  const maxDofs = options.maxDofs ?? 200_000
+  const reference = exactReference(project, modes)
+  const series: ConvergenceSeries[] = []
+  const total = orders.length * masses.length * densities.length
+  let done = 0
+  let stopped = false
+  for (const elementOrder of orders) {
+    for (const mass of masses) {
+      const points: ConvergencePoint[] = []
+      for (const elementsPerSegment of densities) {
+        done++
+        if (stopped) continue
+        const estimate = (project.segments.length * elementsPerSegment + project.masses.length + project.springs.length) * elementOrder
+        if (estimate > maxDofs) continue
+        const analysis = analyseProject(project, { elementOrder, mass, elementsPerSegment, modes }, { withReference: false })
+        const frequenciesHz = analysis.modes.map((m) => m.frequencyHz)
+        const errors = frequenciesHz.map((f, i) => {
+          const ref = reference.frequenciesHz[i]
+          if (ref === undefined || reference.method === null) return null
+          return ref === 0 ? (f === 0 ? 0 : null) : (f - ref) / ref
+        })
+        points.push({ elementsPerSegment, dofs: analysis.totals.dofs, frequenciesHz, errors })
+        if (options.onProgress?.(done / total) === false) stopped = true
+      }
+      series.push({ elementOrder, mass, points, observedOrder: observedOrders(points, modes), extrapolatedHz: richardson(points, modes) })
+    }
+  }
+  return { modes, referenceHz: reference.frequenciesHz, referenceMethod: reference.method, series }
+}
+
+function observedOrders(points: ConvergencePoint[], modes: number): (number | null)[] {
+  const out: (number | null)[] = []
+  for (let m = 0; m < modes; m++) {
+    let order: number | null = null
+    for (let i = points.length - 1; i >= 1 && order === null; i--) {
+      const coarse = points[i - 1].errors[m]
+      const fine = points[i].errors[m]
+      if (coarse === null || fine === null || coarse === undefined || fine === undefined) continue
+      if (Math.abs(fine) < ROUND_OFF || Math.abs(coarse) < ROUND_OFF) continue
+      order = Math.log(Math.abs(coarse) / Math.abs(fine)) / Math.log(points[i].elementsPerSegment / points[i - 1].elementsPerSegment)
+    }
+    out.push(order)
+  }
+  return out
+}
+
+function richardson(points: ConvergencePoint[], modes: number): (number | null)[] {
+  const out: (number | null)[] = []
+  const n = points.length
+  for (let m = 0; m < modes; m++) {
+    if (n < 3) {
+      out.push(null)
+      continue
+    }
+    const f3 = points[n - 3].frequenciesHz[m]
+    const f2 = points[n - 2].frequenciesHz[m]
+    const f1 = points[n - 1].frequenciesHz[m]
+    const r = points[n - 1].elementsPerSegment / points[n - 2].elementsPerSegment
+    const d21 = f2 - f1
+    const d32 = f3 - f2
+    if (f1 === undefined || !(Math.abs(d21) > 0) || !(Math.abs(d32) > 0) || d21 * d32 < 0) {
+      out.push(f1 ?? null)
+      continue
+    }
+    const p = Math.log(d32 / d21) / Math.log(r)
+    out.push(f1 + (f1 - f2) / (r ** p - 1))
+  }
+  return out
+}

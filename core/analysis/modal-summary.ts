@@ -1,0 +1,117 @@
+/**
+ * The modal summary in the two forms other tools read: the `solve --json` document
+ * (see README, "Command line") and the modal summary table (CSV, RFC 4180 quoting).
+ */
+import { hzToRpm } from '../model/units'
+import type { ModalAnalysis } from './modal-analysis'
+import { bandName, closestPair } from './resonance'
+
+export interface SolveDocument {
+  title: string
+  totals: { length: number; mass: number; elements: number; dofs: number }
+  analysis: { elementOrder: number; elementsPerSegment?: number; maxElementLength?: number; mass: string; modes: number }
+  margin: number
+  modes: {
+    mode: number
+    frequencyHz: number
+    rigidBody: boolean
+    referenceHz: number | null
+    errorVsReference: number | null
+    participationFactor: number | null
+    effectiveMass: number | null
+    effectiveMassFraction: number | null
+    cumulativeEffectiveMassFraction: number | null
+  }[]
+  reference: { method: 'exact' | null; formulation: string | null; frequenciesHz: number[] }
+  resonance: { mode: number; excitation: string; order: number | null; excitationHz: [number, number]; separation: number; status: string }[]
+  checks: { sturmCount: { passed: boolean; shifts: number[]; counts: number[]; expected: number[] } }
+  timing: { assembleMs: number; solveMs: number }
+}
+
+export function solveDocument(analysis: ModalAnalysis): SolveDocument {
+  const s = analysis.settings
+  return {
+    title: analysis.project.title ?? '',
+    totals: analysis.totals,
+    analysis: {
+      elementOrder: s.elementOrder,
+      ...(s.elementsPerSegment !== undefined ? { elementsPerSegment: s.elementsPerSegment } : {}),
+      ...(s.maxElementLength !== undefined ? { maxElementLength: s.maxElementLength } : {}),
+      mass: s.mass,
+      modes: s.modes,
+    },
+    margin: analysis.project.margin,
+    modes: analysis.modes.map((m) => ({
+      mode: m.mode,
+      frequencyHz: m.frequencyHz,
+      rigidBody: m.rigidBody,
+      referenceHz: m.referenceHz,
+      errorVsReference: m.errorVsReference,
+      participationFactor: m.participationFactor,
+      effectiveMass: m.effectiveMass,
+      effectiveMassFraction: m.effectiveMassFraction,
+      cumulativeEffectiveMassFraction: m.cumulativeEffectiveMassFraction,
+    })),
+    reference: { method: analysis.reference.method, formulation: analysis.reference.formulation, frequenciesHz: analysis.reference.frequenciesHz },
+    resonance: analysis.resonance.map((p) => ({
+      mode: p.mode,
+      excitation: p.band.label,
+      order: p.band.order,
+      excitationHz: [p.band.hz[0], p.band.hz[1]],
+      separation: p.separation,
+      status: p.status,
+    })),
+    checks: {
+      sturmCount: { passed: analysis.sturm.passed, shifts: analysis.sturm.shifts, counts: analysis.sturm.counts, expected: analysis.sturm.expected },
+    },
+    timing: { assembleMs: analysis.timing.assembleMs, solveMs: analysis.timing.solveMs },
+  }
+}
+
+export const MODAL_SUMMARY_COLUMNS = [
+  'mode',
+  'frequency_hz',
+  'speed_rpm',
+  'reference_hz',
+  'error_vs_reference',
+  'effective_mass_percent',
+  'cumulative_effective_mass_percent',
+  'closest_excitation',
+  'separation_percent',
+  'status',
+] as const
+
+function csvField(value: string | number | null): string {
+  if (value === null) return ''
+  const text = typeof value === 'number' ? formatNumber(value) : value
+  return /[",\r\n]/.test(text) ? `"${text.replace(/"/g, '""')}"` : text
+}
+
+/** Enough digits to round-trip what matters, without noise: 10 significant. */
+function formatNumber(v: number): string {
+  if (!Number.isFinite(v)) return ''
+  if (v === 0) return '0'
+  return String(Number(v.toPrecision(10)))
+}
+
+/** The modal summary table: one row per mode, with its closest excitation and status. */
+export function modalSummaryCsv(analysis: ModalAnalysis): string {
+  const lines = [MODAL_SUMMARY_COLUMNS.join(',')]
+  for (const m of analysis.modes) {
+    const pair = closestPair(analysis.resonance, m.mode)
+    const row = [
+      m.mode,
+      m.frequencyHz,
+      hzToRpm(m.frequencyHz),
+      m.referenceHz,
+      m.errorVsReference,
+      m.effectiveMassFraction === null ? null : 100 * m.effectiveMassFraction,
+      m.cumulativeEffectiveMassFraction === null ? null : 100 * m.cumulativeEffectiveMassFraction,
+      pair ? bandName(pair.band) : m.rigidBody ? 'rigid-body mode' : null,
+      pair ? 100 * pair.separation : null,
+      pair ? pair.status : null,
+    ]
+    lines.push(row.map(csvField).join(','))
+  }
+  return lines.join('\r\n') + '\r\n'
+}

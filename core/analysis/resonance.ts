@@ -1,0 +1,91 @@
+/**
+ * Resonance check: every natural frequency against every excitation band.
+ * A speed excitation (rpm, single or range) with orders gives one band per order,
+ * [rpm_min·order, rpm_max·order]/60 Hz; a frequency excitation gives its own band.
+ * separation = (f_mode − f_exc)/f_exc with f_exc the nearest point of the band (0 inside);
+ * a pair conflicts when |separation| < margin. Keeping modes 10–20 % away from excitation
+ * is common practice (no single source); Rodwave's default margin is 15 %.
+ */
+import type { Excitation, Project } from '../model/project'
+import { RPM } from '../model/units'
+
+export interface ExcitationBand {
+  /** Index in project.excitations. */
+  readonly excitationIndex: number
+  readonly label: string
+  /** Multiple of running speed, or null for a frequency excitation. */
+  readonly order: number | null
+  readonly hz: readonly [number, number]
+}
+
+export type ResonanceStatus = 'clear' | 'conflict'
+
+export interface ResonancePair {
+  readonly mode: number
+  readonly frequencyHz: number
+  readonly band: ExcitationBand
+  readonly separation: number
+  readonly status: ResonanceStatus
+}
+
+export function excitationLabel(excitation: Excitation, index: number): string {
+  return excitation.label?.trim() || `Excitation ${index + 1}`
+}
+
+function asRange(v: number | [number, number]): [number, number] {
+  return Array.isArray(v) ? [v[0], v[1]] : [v, v]
+}
+
+export function excitationBands(excitations: readonly Excitation[]): ExcitationBand[] {
+  const bands: ExcitationBand[] = []
+  excitations.forEach((e, i) => {
+    const label = excitationLabel(e, i)
+    if ('rpm' in e) {
+      const [lo, hi] = asRange(e.rpm)
+      for (const order of e.orders) bands.push({ excitationIndex: i, label, order, hz: [lo * order * RPM, hi * order * RPM] })
+    } else {
+      bands.push({ excitationIndex: i, label, order: null, hz: asRange(e.hz) })
+    }
+  })
+  return bands
+}
+
+/** Signed separation of a frequency from a band: negative below it, positive above, 0 inside. */
+export function separationFromBand(frequencyHz: number, band: readonly [number, number]): number {
+  const [lo, hi] = band
+  if (frequencyHz < lo) return (frequencyHz - lo) / lo
+  if (frequencyHz > hi) return (frequencyHz - hi) / hi
+  return 0
+}
+
+export function statusOf(separation: number, margin: number): ResonanceStatus {
+  return Math.abs(separation) < margin ? 'conflict' : 'clear'
+}
+
+/** Every (elastic mode, band) pair, mode by mode in the order of the bands. */
+export function resonancePairs(
+  modes: readonly { mode: number; frequencyHz: number; rigidBody: boolean }[],
+  project: Pick<Project, 'excitations' | 'margin'>,
+): ResonancePair[] {
+  const bands = excitationBands(project.excitations)
+  const pairs: ResonancePair[] = []
+  for (const m of modes) {
+    if (m.rigidBody) continue
+    for (const band of bands) {
+      const separation = separationFromBand(m.frequencyHz, band.hz)
+      pairs.push({ mode: m.mode, frequencyHz: m.frequencyHz, band, separation, status: statusOf(separation, project.margin) })
+    }
+  }
+  return pairs
+}
+
+/** The pair of a mode closest to resonance (smallest |separation|), or null without excitations. */
+export function closestPair(pairs: readonly ResonancePair[], mode: number): ResonancePair | null {
+  let best: ResonancePair | null = null
+  for (const p of pairs) if (p.mode === mode && (!best || Math.abs(p.separation) < Math.abs(best.separation))) best = p
+  return best
+}
+
+export function bandName(band: ExcitationBand): string {
+  return band.order === null ? band.label : `${band.label} ×${band.order}`
+}

@@ -1,0 +1,348 @@
+/**
+ * Inverse-iteration steps y = (K − σM)⁻¹ M x, the kernel of the Rayleigh quotient
+ * iteration in lowest-modes.ts (B. N. Parlett, The Symmetric Eigenvalue Problem,
+ * ch. 4, from memory).
+ *
+ * For tridiagonal pencils a step is two sweeps over memory, and several modes (each
+ * with its own shift) share them: the forward sweep factorises K − σ_b M as in
+ * shifted-ldlt.ts, forms (M x_b)_p on the fly and runs the forward substitution; the
+ * backward sweep runs the back substitution. Sharing the sweeps reads K and M once for
+ * all modes, and the independent recurrences overlap in the processor.
+ *
+ * The backward sweep also accumulates yᵀKy and yᵀMy in the difference (energy) form,
+ * so the Rayleigh quotient of y costs no extra pass.
+ */
+import { factorShifted, pivotFloor, solveFactored, type BandPencil, type ShiftedFactorization } from './shifted-ldlt'
+import { multiplyBand, quadraticForm } from './symmetric-band-matrix'
+
+export interface InverseIterationStep {
+  /** Sturm count at σ. */
+  negativePivots: number
+  /** xᵀMx of the input and yᵀMy of the output: ‖x‖_M / ‖y‖_M bounds |λ − σ| for some eigenvalue. */
+  xMx: number
+  yMy: number
+  /** Rayleigh quotient of y. */
+  rayleigh: number
+  /** The entry of y largest in magnitude, with its sign (NaN when not tracked). */
+  largest: number
+}
+
+/** Interleaved storage of the forward sweep of up to four modes (see sweepFour). */
+export interface BlockWork {
+  readonly width: number
+  readonly lw: Float64Array
+}
+
+export function allocateBlockWork(order: number): BlockWork {
+  return { width: 4, lw: new Float64Array(8 * order) }
+}
+
+/**
+ * One step for every vector in `vectors` (x in, y out, in place), mode b at shifts[b].
+ * Tridiagonal pencils only. Modes go four to a sweep (a group of three is padded by repeating
+ * its last mode, which writes identical values twice); one or two left over go alone.
+ */
+export function blockInverseIterationStep(
+  pencil: BandPencil,
+  shifts: ArrayLike<number>,
+  vectors: Float64Array[],
+  work: BlockWork,
+): InverseIterationStep[] {
+  if (pencil.stiffness.halfBandwidth !== 1) throw new RangeError('block steps need a tridiagonal pencil')
+  if (work.width < 4 || work.lw.length < 8 * pencil.stiffness.order) throw new RangeError('block work storage is too small')
+  const out: InverseIterationStep[] = []
+  let first = 0
+  while (first < vectors.length) {
+    const left = vectors.length - first
+    if (left >= 3) {
+      const lanes = [0, 1, 2, 3].map((b) => first + Math.min(b, left - 1))
+      const results = sweepFour(pencil, lanes.map((i) => shifts[i]), lanes.map((i) => vectors[i]), work.lw)
+      out.push(...results.slice(0, Math.min(4, left)))
+      first += Math.min(4, left)
+    } else {
+      out.push(sweepOne(pencil, shifts[first], vectors[first], work.lw))
+      first++
+    }
+  }
+  return out
+}
+
+/** Single-mode forward and backward sweeps; lw[2p] = l_p, lw[2p+1] = z_p / d_p. */
+function sweepOne(pencil: BandPencil, shift: number, x: Float64Array, lw: Float64Array): InverseIterationStep {
+  const { stiffness: k, mass: m } = pencil
+  const n = k.order
+  const kOff = k.offDiagonals[0]
+  const mOff = m.offDiagonals[0]
+  const kRow = k.rowSums
+  const mRow = m.rowSums
+  const floor = pivotFloor(pencil, shift)
+  let negative = 0
+  let xMx = 0
+  let rowSum = kRow[0] - shift * mRow[0]
+  let z = 0
+  let l = 0
+  let moPrev = 0
+  for (let p = 0; p < n; p++) {
+    const last = p === n - 1
+    const ko = last ? 0 : kOff[p]
+    const mo = last ? 0 : mOff[p]
+    const xp = x[p]
+    const xNext = last ? xp : x[p + 1]
+    const xPrev = p === 0 ? xp : x[p - 1]
+    const off = ko - shift * mo
+    let pivot = rowSum - off
+    if (!(Math.abs(pivot) >= floor)) pivot = -floor
+    if (pivot < 0) negative++
+    // (M x)_p = r_p x_p + M_{p,p+1}(x_{p+1} − x_p) + M_{p−1,p}(x_{p−1} − x_p)
+    const mx = mRow[p] * xp + mo * (xNext - xp) + moPrev * (xPrev - xp)
+    xMx += xp * mx
+    z = mx - l * z
+    const inverse = 1 / pivot
+    l = off * inverse
+    lw[2 * p] = l
+    lw[2 * p + 1] = z * inverse
+    if (!last) rowSum = kRow[p + 1] - shift * mRow[p + 1] - l * rowSum
+    moPrev = mo
+  }
+  let yKy = 0
+  let yMy = 0
+  let largest = 0
+  let yNext = 0
+  for (let p = n - 1; p >= 0; p--) {
+    const y = lw[2 * p + 1] - lw[2 * p] * yNext
+    x[p] = y
+    const ko = p === n - 1 ? 0 : kOff[p]
+    const mo = p === n - 1 ? 0 : mOff[p]
+    const diff = yNext - y
+    yKy += kRow[p] * y * y - ko * diff * diff
+    yMy += mRow[p] * y * y - mo * diff * diff
+    if (Math.abs(y) > Math.abs(largest)) largest = y
+    yNext = y
+  }
+  return { negativePivots: negative, xMx, yMy, rayleigh: yKy / yMy, largest }
+}
+
+/**
+ * Four modes per sweep, written out lane by lane: the four recurrences are independent, so
+ * their divisions overlap, and K and M are read once for all four. lw[8p + 2b] = l, lw[8p + 2b + 1] = z/d.
+ */
+function sweepFour(pencil: BandPencil, shifts: number[], xs: Float64Array[], lw: Float64Array): InverseIterationStep[] {
+  const { stiffness: k, mass: m } = pencil
+  const n = k.order
+  const kOff = k.offDiagonals[0]
+  const mOff = m.offDiagonals[0]
+  const kRow = k.rowSums
+  const mRow = m.rowSums
+  const [s0, s1, s2, s3] = shifts
+  const [x0, x1, x2, x3] = xs
+  const f0 = pivotFloor(pencil, s0)
+  const f1 = pivotFloor(pencil, s1)
+  const f2 = pivotFloor(pencil, s2)
+  const f3 = pivotFloor(pencil, s3)
+  let r0 = kRow[0] - s0 * mRow[0]
+  let r1 = kRow[0] - s1 * mRow[0]
+  let r2 = kRow[0] - s2 * mRow[0]
+  let r3 = kRow[0] - s3 * mRow[0]
+  let z0 = 0, z1 = 0, z2 = 0, z3 = 0 // prettier-ignore
+  let l0 = 0, l1 = 0, l2 = 0, l3 = 0 // prettier-ignore
+  let n0 = 0, n1 = 0, n2 = 0, n3 = 0 // prettier-ignore
+  let q0 = 0, q1 = 0, q2 = 0, q3 = 0 // prettier-ignore
+  let moPrev = 0
+  for (let p = 0; p < n; p++) {
+    const last = p === n - 1
+    const ko = last ? 0 : kOff[p]
+    const mo = last ? 0 : mOff[p]
+    const mr = mRow[p]
+    const krNext = last ? 0 : kRow[p + 1]
+    const mrNext = last ? 0 : mRow[p + 1]
+    const pNext = last ? p : p + 1
+    const pPrev = p === 0 ? p : p - 1
+    const base = 8 * p
+    {
+      const xp = x0[p]
+      const off = ko - s0 * mo
+      let pivot = r0 - off
+      if (!(Math.abs(pivot) >= f0)) pivot = -f0
+      if (pivot < 0) n0++
+      const mx = mr * xp + mo * (x0[pNext] - xp) + moPrev * (x0[pPrev] - xp)
+      q0 += xp * mx
+      z0 = mx - l0 * z0
+      const inverse = 1 / pivot
+      l0 = off * inverse
+      lw[base] = l0
+      lw[base + 1] = z0 * inverse
+      r0 = krNext - s0 * mrNext - l0 * r0
+    }
+    {
+      const xp = x1[p]
+      const off = ko - s1 * mo
+      let pivot = r1 - off
+      if (!(Math.abs(pivot) >= f1)) pivot = -f1
+      if (pivot < 0) n1++
+      const mx = mr * xp + mo * (x1[pNext] - xp) + moPrev * (x1[pPrev] - xp)
+      q1 += xp * mx
+      z1 = mx - l1 * z1
+      const inverse = 1 / pivot
+      l1 = off * inverse
+      lw[base + 2] = l1
+      lw[base + 3] = z1 * inverse
+      r1 = krNext - s1 * mrNext - l1 * r1
+    }
+    {
+      const xp = x2[p]
+      const off = ko - s2 * mo
+      let pivot = r2 - off
+      if (!(Math.abs(pivot) >= f2)) pivot = -f2
+      if (pivot < 0) n2++
+      const mx = mr * xp + mo * (x2[pNext] - xp) + moPrev * (x2[pPrev] - xp)
+      q2 += xp * mx
+      z2 = mx - l2 * z2
+      const inverse = 1 / pivot
+      l2 = off * inverse
+      lw[base + 4] = l2
+      lw[base + 5] = z2 * inverse
+      r2 = krNext - s2 * mrNext - l2 * r2
+    }
+    {
+      const xp = x3[p]
+      const off = ko - s3 * mo
+      let pivot = r3 - off
+      if (!(Math.abs(pivot) >= f3)) pivot = -f3
+      if (pivot < 0) n3++
+      const mx = mr * xp + mo * (x3[pNext] - xp) + moPrev * (x3[pPrev] - xp)
+      q3 += xp * mx
+      z3 = mx - l3 * z3
+      const inverse = 1 / pivot
+      l3 = off * inverse
+      lw[base + 6] = l3
+      lw[base + 7] = z3 * inverse
+      r3 = krNext - s3 * mrNext - l3 * r3
+    }
+    moPrev = mo
+  }
+  let y0 = 0, y1 = 0, y2 = 0, y3 = 0 // prettier-ignore
+  let k0 = 0, k1 = 0, k2 = 0, k3 = 0 // prettier-ignore
+  let m0 = 0, m1 = 0, m2 = 0, m3 = 0 // prettier-ignore
+  let g0 = 0, g1 = 0, g2 = 0, g3 = 0 // prettier-ignore
+  for (let p = n - 1; p >= 0; p--) {
+    const kr = kRow[p]
+    const mr = mRow[p]
+    const ko = p === n - 1 ? 0 : kOff[p]
+    const mo = p === n - 1 ? 0 : mOff[p]
+    const base = 8 * p
+    let y = lw[base + 1] - lw[base] * y0
+    let d = y0 - y
+    k0 += kr * y * y - ko * d * d
+    m0 += mr * y * y - mo * d * d
+    if (Math.abs(y) > Math.abs(g0)) g0 = y
+    y0 = y
+    x0[p] = y
+    y = lw[base + 3] - lw[base + 2] * y1
+    d = y1 - y
+    k1 += kr * y * y - ko * d * d
+    m1 += mr * y * y - mo * d * d
+    if (Math.abs(y) > Math.abs(g1)) g1 = y
+    y1 = y
+    x1[p] = y
+    y = lw[base + 5] - lw[base + 4] * y2
+    d = y2 - y
+    k2 += kr * y * y - ko * d * d
+    m2 += mr * y * y - mo * d * d
+    if (Math.abs(y) > Math.abs(g2)) g2 = y
+    y2 = y
+    x2[p] = y
+    y = lw[base + 7] - lw[base + 6] * y3
+    d = y3 - y
+    k3 += kr * y * y - ko * d * d
+    m3 += mr * y * y - mo * d * d
+    if (Math.abs(y) > Math.abs(g3)) g3 = y
+    y3 = y
+    x3[p] = y
+  }
+  return [
+    { negativePivots: n0, xMx: q0, yMy: m0, rayleigh: k0 / m0, largest: g0 },
+    { negativePivots: n1, xMx: q1, yMy: m1, rayleigh: k1 / m1, largest: g1 },
+    { negativePivots: n2, xMx: q2, yMy: m2, rayleigh: k2 / m2, largest: g2 },
+    { negativePivots: n3, xMx: q3, yMy: m3, rayleigh: k3 / m3, largest: g3 },
+  ]
+}
+
+/** xᵀKx and xᵀMx of several vectors (difference form, as quadraticForm), four per sweep. */
+export function blockEnergies(pencil: BandPencil, vectors: Float64Array[]): { xKx: number; xMx: number }[] {
+  const { stiffness: k, mass: m } = pencil
+  if (k.halfBandwidth !== 1) return vectors.map((x) => ({ xKx: quadraticForm(k, x), xMx: quadraticForm(m, x) }))
+  const out: { xKx: number; xMx: number }[] = []
+  for (let first = 0; first < vectors.length; first += 4) {
+    const left = vectors.length - first
+    const lanes = [0, 1, 2, 3].map((b) => vectors[first + Math.min(b, left - 1)])
+    out.push(...energiesFour(pencil, lanes).slice(0, Math.min(4, left)))
+  }
+  return out
+}
+
+function energiesFour(pencil: BandPencil, xs: Float64Array[]): { xKx: number; xMx: number }[] {
+  const { stiffness: k, mass: m } = pencil
+  const n = k.order
+  const kOff = k.offDiagonals[0]
+  const mOff = m.offDiagonals[0]
+  const kRow = k.rowSums
+  const mRow = m.rowSums
+  const [x0, x1, x2, x3] = xs
+  let k0 = 0, k1 = 0, k2 = 0, k3 = 0 // prettier-ignore
+  let m0 = 0, m1 = 0, m2 = 0, m3 = 0 // prettier-ignore
+  for (let p = 0; p + 1 < n; p++) {
+    const kr = kRow[p]
+    const mr = mRow[p]
+    const ko = kOff[p]
+    const mo = mOff[p]
+    let v = x0[p]
+    let d = x0[p + 1] - v
+    k0 += kr * v * v - ko * d * d
+    m0 += mr * v * v - mo * d * d
+    v = x1[p]
+    d = x1[p + 1] - v
+    k1 += kr * v * v - ko * d * d
+    m1 += mr * v * v - mo * d * d
+    v = x2[p]
+    d = x2[p + 1] - v
+    k2 += kr * v * v - ko * d * d
+    m2 += mr * v * v - mo * d * d
+    v = x3[p]
+    d = x3[p + 1] - v
+    k3 += kr * v * v - ko * d * d
+    m3 += mr * v * v - mo * d * d
+  }
+  const kr = kRow[n - 1]
+  const mr = mRow[n - 1]
+  const e = (x: Float64Array, kk: number, mm: number) => ({ xKx: kk + kr * x[n - 1] ** 2, xMx: mm + mr * x[n - 1] ** 2 })
+  return [e(x0, k0, m0), e(x1, k1, m1), e(x2, k2, m2), e(x3, k3, m3)]
+}
+
+/**
+ * One step for a single vector of any bandwidth, in place: x is replaced by (K − σM)⁻¹ M x.
+ * Tridiagonal pencils use the block sweeps (work width ≥ 1); wider bands factorise into f and
+ * use scratch for M x.
+ */
+export function inverseIterationStepInPlace(
+  pencil: BandPencil,
+  shift: number,
+  x: Float64Array,
+  scratch: Float64Array,
+  f: ShiftedFactorization,
+  work: BlockWork,
+): InverseIterationStep {
+  const { stiffness: k, mass: m } = pencil
+  if (k.halfBandwidth === 1) return blockInverseIterationStep(pencil, [shift], [x], work)[0]
+  factorShifted(pencil, shift, f)
+  multiplyBand(m, x, scratch)
+  const xMx = dotProduct(x, scratch)
+  solveFactored(f, scratch, x)
+  const yMy = quadraticForm(m, x)
+  return { negativePivots: f.negativePivots, xMx, yMy, rayleigh: quadraticForm(k, x) / yMy, largest: NaN }
+}
+
+function dotProduct(a: Float64Array, b: Float64Array): number {
+  let s = 0
+  for (let i = 0; i < a.length; i++) s += a[i] * b[i]
+  return s
+}

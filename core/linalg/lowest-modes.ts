@@ -1,0 +1,589 @@
+/**
+ * Lowest eigenpairs of a symmetric banded pencil (K, M), K positive semi-definite,
+ * M positive definite, never forming a dense matrix.
+ *
+ * Method (multilevel Rayleigh quotient iteration with Sturm safeguards):
+ * 1. Galerkin-coarsen the chain by 4 until it is small (galerkin-coarsening.ts);
+ *    on the smallest level, find each mode by spectrum slicing (bisection on
+ *    Sturm counts) followed by safeguarded Rayleigh quotient iteration.
+ * 2. On each finer level, interpolate the coarse modes (cubic) and refine each one by
+ *    Rayleigh quotient iteration (cubically convergent; B. N. Parlett, The Symmetric
+ *    Eigenvalue Problem, ch. 4, from memory). Each step costs one banded LDLᵀ and one
+ *    solve (inverse-iteration.ts), so a level costs O(n·k); on fine meshes one step
+ *    per mode meets the tolerance.
+ * 3. Check every level with Sturm counts (shifted-ldlt.ts) at the midpoints between
+ *    consecutive eigenvalues and just above the last: the count below each midpoint
+ *    must be its index. Any mode that fails (missed, duplicated, not converged) is
+ *    found again by bisection on counts plus safeguarded Rayleigh quotient iteration.
+ * A free–free chain (all stiffness row sums zero) has one rigid-body mode, λ = 0 with a
+ * constant shape; it is set exactly and the elastic modes are kept M-orthogonal to it.
+ */
+import { seededRandom, type RandomSource } from '../random'
+import { coarseningMap, coarsenPencil, interpolateSmooth, type CoarseningMap } from './galerkin-coarsening'
+import {
+  allocateBlockWork,
+  blockEnergies,
+  blockInverseIterationStep,
+  inverseIterationStepInPlace,
+  type BlockWork,
+} from './inverse-iteration'
+import {
+  allocateFactorization,
+  factorShifted,
+  pencilNorms,
+  sturmCounts,
+  type BandPencil,
+  type ShiftedFactorization,
+} from './shifted-ldlt'
+import { bilinearForm, multiplyBand, quadraticForm } from './symmetric-band-matrix'
+import { smallGeneralizedEigen } from './small-symmetric-eigen'
+
+export interface LowestModesOptions {
+  /** Number of modes wanted, rigid-body modes included. */
+  readonly modes: number
+  /** Seed of the random start vectors used when a mode has to be searched from scratch. */
+  readonly seed?: number
+  /** Relative residual bound at which a Rayleigh quotient iteration stops (default 1e-11). */
+  readonly tolerance?: number
+}
+
+export interface SturmCheck {
+  /** Shifts between consecutive eigenvalues, then one just above the last. */
+  readonly shifts: number[]
+  /** Number of eigenvalues below each shift, from the inertia of K − σM. */
+  readonly counts: number[]
+  /** What the counts must be if no mode was missed: 1, 2, … (rigid-body modes included). */
+  readonly expected: number[]
+  readonly passed: boolean
+}
+
+export interface LowestModes {
+  /** λ = ω², ascending; rigid-body modes (λ = 0) first. */
+  readonly eigenvalues: Float64Array
+  /** Mode shapes, M-normalised (φᵀ M φ = 1), largest component positive. */
+  readonly vectors: Float64Array[]
+  readonly rigidBodyModes: number
+  readonly sturm: SturmCheck
+  readonly statistics: { levels: number; factorizations: number; repairedModes: number }
+}
+
+interface Context {
+  /** M-norm² and largest entry of vectors fresh from an iteration, so normalising takes one sweep. */
+  readonly vectorInfo: WeakMap<Float64Array, { massNorm2: number; largest: number }>
+  factorizations: number
+  repairedModes: number
+  levels: number
+  readonly random: RandomSource
+  readonly tolerance: number
+}
+
+interface LevelResult {
+  /** Elastic eigenvalues and vectors, ascending. */
+  readonly values: number[]
+  readonly vectors: Float64Array[]
+  /** An upper estimate of the next elastic eigenvalue, when known. */
+  readonly nextEstimate: number | null
+  readonly rigidBodyModes: number
+  readonly rigidVector: Float64Array | null
+  readonly sturm: SturmCheck
+}
+
+/** Work storage of one level. */
+interface Level {
+  readonly pencil: BandPencil
+  readonly order: number
+  readonly context: Context
+  /** M-orthonormal vectors every iterate is kept orthogonal to (the rigid-body mode), and M times each. */
+  readonly locked: Float64Array[]
+  readonly lockedM: Float64Array[]
+  scratch: Float64Array
+  block: BlockWork
+  factorization: ShiftedFactorization | null
+}
+
+/** Bracket of the index-th eigenvalue (1-based, rigid modes counted): count(lower) < index ≤ count(upper). */
+interface Bracket {
+  lower: number
+  upper: number
+  readonly index: number
+}
+
+interface RefinedMode {
+  value: number
+  converged: boolean
+  vector: Float64Array
+}
+
+/** Modes refined together in one pair of sweeps on tridiagonal levels. */
+const BLOCK_WIDTH = 4
+const COARSENING_RATIO = 4
+
+/** Lowest modes of (K, M); see the file comment for the method. */
+export function lowestModes(pencil: BandPencil, options: LowestModesOptions): LowestModes {
+  const n = pencil.stiffness.order
+  if (pencil.mass.order !== n || pencil.mass.halfBandwidth !== pencil.stiffness.halfBandwidth) {
+    throw new RangeError('stiffness and mass must have the same order and bandwidth')
+  }
+  if (!Number.isInteger(options.modes) || options.modes < 1) throw new RangeError('modes must be a positive integer')
+  const context: Context = {
+    vectorInfo: new WeakMap(),
+    factorizations: 0,
+    repairedModes: 0,
+    levels: 0,
+    random: seededRandom(options.seed ?? 20261201),
+    tolerance: options.tolerance ?? 1e-11,
+  }
+  const result = solveLevel(pencil, Math.min(options.modes, n), context)
+  const eigenvalues = new Float64Array(result.rigidBodyModes + result.values.length)
+  const vectors: Float64Array[] = []
+  if (result.rigidVector) vectors.push(result.rigidVector)
+  for (let i = 0; i < result.values.length; i++) {
+    eigenvalues[result.rigidBodyModes + i] = result.values[i]
+    vectors.push(result.vectors[i])
+  }
+  for (const v of vectors) normaliseAndOrient(pencil, v, context.vectorInfo.get(v))
+  return {
+    eigenvalues,
+    vectors,
+    rigidBodyModes: result.rigidBodyModes,
+    sturm: result.sturm,
+    statistics: { levels: context.levels, factorizations: context.factorizations, repairedModes: context.repairedModes },
+  }
+}
+
+/**
+ * Sturm check of a claimed set of lowest eigenvalues: the counts at the midpoints
+ * and at a shift just above the last must be 1, 2, …, m. The shift above the last
+ * starts at `aboveLast` (or 1.5 × the last value) and is moved down towards the last
+ * value while more than m eigenvalues lie below it. Exposed so that any result can be audited.
+ */
+export function checkLowestEigenvalues(pencil: BandPencil, eigenvalues: ArrayLike<number>, aboveLast?: number): SturmCheck {
+  const values = Array.from(eigenvalues).sort((a, b) => a - b)
+  const m = values.length
+  const shifts: number[] = []
+  const expected: number[] = []
+  let zeros = 0
+  // Rigid-body modes (λ = 0) have nothing below them; the first elastic midpoint counts them.
+  while (zeros < m && values[zeros] === 0) zeros++
+  for (let j = Math.max(zeros, 1); j < m; j++) {
+    shifts.push(0.5 * (values[j - 1] + values[j]))
+    expected.push(j)
+  }
+  if (m === 0) return { shifts, counts: [], expected, passed: true }
+  const last = values[m - 1]
+  const norms = pencilNorms(pencil)
+  let top = aboveLast !== undefined && aboveLast > last ? aboveLast : last > 0 ? 1.5 * last : 1e-3 * (norms.stiffness / norms.mass)
+  shifts.push(top)
+  expected.push(m)
+  const counts = sturmCounts(pencil, shifts)
+  for (let i = 0; i < 40 && counts[counts.length - 1] > m; i++) {
+    const previous = top
+    top = last + 0.125 * (top - last)
+    if (!(top > last) || top === previous) break
+    shifts[shifts.length - 1] = top
+    counts[counts.length - 1] = sturmCounts(pencil, [top])[0]
+  }
+  return { shifts, counts, expected, passed: counts.every((c, j) => c === expected[j]) }
+}
+
+function minimumCoarseOrder(modes: number): number {
+  return Math.max(6 * modes, 32)
+}
+
+function hasRigidBodyMode(pencil: BandPencil): boolean {
+  const r = pencil.stiffness.rowSums
+  for (let i = 0; i < r.length; i++) if (r[i] !== 0) return false
+  return true
+}
+
+function createLevel(pencil: BandPencil, context: Context, rigidVector: Float64Array | null): Level {
+  const n = pencil.stiffness.order
+  const locked = rigidVector ? [rigidVector] : []
+  return {
+    pencil,
+    order: n,
+    context,
+    locked,
+    lockedM: locked.map((v) => multiplyBand(pencil.mass, v, new Float64Array(n))),
+    scratch: new Float64Array(pencil.stiffness.halfBandwidth === 1 ? 0 : n),
+    block: allocateBlockWork(pencil.stiffness.halfBandwidth === 1 ? n : 0),
+    factorization: null,
+  }
+}
+
+function factorizationOf(level: Level): ShiftedFactorization {
+  if (!level.factorization) level.factorization = allocateFactorization(level.order, level.pencil.stiffness.halfBandwidth)
+  return level.factorization
+}
+
+function solveLevel(pencil: BandPencil, modes: number, context: Context): LevelResult {
+  context.levels++
+  const n = pencil.stiffness.order
+  const rigidBodyModes = hasRigidBodyMode(pencil) ? 1 : 0
+  const total = Math.min(modes, n)
+  const elastic = total - rigidBodyModes
+  let rigidVector: Float64Array | null = null
+  if (rigidBodyModes) {
+    // M·1 = row sums of M, so 1ᵀM1 is their sum.
+    let totalMass = 0
+    for (const r of pencil.mass.rowSums) totalMass += r
+    rigidVector = new Float64Array(n).fill(1 / Math.sqrt(totalMass))
+  }
+  if (elastic <= 0) {
+    const sturm = checkLowestEigenvalues(pencil, rigidBodyModes ? [0] : [])
+    return { values: [], vectors: [], nextEstimate: null, rigidBodyModes, rigidVector, sturm }
+  }
+  const level = createLevel(pencil, context, rigidVector)
+  let found: RefinedMode[]
+  let nextEstimate: number | null = null
+  if (n >= COARSENING_RATIO * minimumCoarseOrder(total + 1)) {
+    const map = coarseningMap(n, COARSENING_RATIO)
+    const coarse = solveLevel(coarsenPencil(pencil, map), total + 1, context)
+    found = refineFromCoarse(level, map, coarse.vectors.slice(0, elastic))
+    nextEstimate = coarse.values.length > elastic ? coarse.values[elastic] : null
+  } else {
+    found = []
+    const slicer = new SpectrumSlicer(level, rigidBodyModes)
+    for (let j = 1; j <= elastic; j++) {
+      const bracket = slicer.isolate(rigidBodyModes + j, 0.02)
+      const start = 0.5 * (bracket.lower + bracket.upper)
+      found.push(refineMode(level, randomVector(n, context.random), start, bracket, nearbyVectors(found, start)))
+    }
+    if (total < n) nextEstimate = slicer.isolate(total + 1, 1).upper
+  }
+  found.sort((a, b) => a.value - b.value)
+  const checked = verifyAndRepair(level, found, rigidBodyModes, elastic, nextEstimate)
+  return { ...checked, nextEstimate, rigidBodyModes, rigidVector }
+}
+
+/**
+ * Fine-level refinement of interpolated coarse modes. On tridiagonal levels without a rigid
+ * mode, modes go through the block sweeps four at a time: their Rayleigh quotients in one
+ * sweep, then one inverse-iteration step with each mode at its own quotient. A mode the step
+ * does not settle continues alone.
+ */
+function refineFromCoarse(level: Level, map: CoarseningMap, coarseVectors: Float64Array[]): RefinedMode[] {
+  const { pencil, context, order: n } = level
+  const found: RefinedMode[] = []
+  const blockable = pencil.stiffness.halfBandwidth === 1 && level.locked.length === 0
+  for (let first = 0; first < coarseVectors.length; first += BLOCK_WIDTH) {
+    const group = coarseVectors.slice(first, first + BLOCK_WIDTH)
+    const starts = group.map((v) => interpolateSmooth(map, v, new Float64Array(n)))
+    const energies = blockEnergies(pencil, starts)
+    if (!blockable) {
+      starts.forEach((x, b) => {
+        const start = energies[b].xKx / energies[b].xMx
+        found.push(refineMode(level, x, start, null, nearbyVectors(found, start)))
+      })
+      continue
+    }
+    const shifts = energies.map((e) => e.xKx / e.xMx)
+    const steps = blockInverseIterationStep(pencil, shifts, starts, level.block)
+    context.factorizations += starts.length
+    steps.forEach((step, b) => {
+      const x = starts[b]
+      const bound = Math.sqrt(step.xMx / step.yMy)
+      if (bound <= context.tolerance * Math.abs(shifts[b]) && Number.isFinite(step.rayleigh)) {
+        context.vectorInfo.set(x, { massNorm2: step.yMy, largest: step.largest })
+        found.push({ value: step.rayleigh, converged: true, vector: x })
+      } else {
+        found.push(refineMode(level, x, step.rayleigh, null, nearbyVectors(found, step.rayleigh)))
+      }
+    })
+  }
+  return found
+}
+
+/** Already-found modes whose eigenvalues lie within 1 % of λ: kept orthogonal to avoid converging twice to one mode. */
+function nearbyVectors(found: RefinedMode[], lambda: number): Float64Array[] {
+  return found.filter((f) => Math.abs(f.value - lambda) <= 1e-2 * Math.abs(lambda)).map((f) => f.vector)
+}
+
+function randomVector(n: number, random: RandomSource): Float64Array {
+  const x = new Float64Array(n)
+  for (let i = 0; i < n; i++) x[i] = random() - 0.5
+  return x
+}
+
+function dot(a: Float64Array, b: Float64Array): number {
+  let s = 0
+  for (let i = 0; i < a.length; i++) s += a[i] * b[i]
+  return s
+}
+
+/** y ← y − Σ (vᵢᵀ M y)/(vᵢᵀ M vᵢ) vᵢ; massVectors[i] = M vᵢ, computed on first use when missing. */
+function orthogonalise(level: Level, y: Float64Array, vectors: Float64Array[], massVectors: Float64Array[]): void {
+  for (let i = 0; i < vectors.length; i++) {
+    const v = vectors[i]
+    if (!massVectors[i]) massVectors[i] = multiplyBand(level.pencil.mass, v, new Float64Array(level.order))
+    const mv = massVectors[i]
+    const c = dot(mv, y) / dot(mv, v)
+    for (let j = 0; j < y.length; j++) y[j] -= c * v[j]
+  }
+}
+
+function splitBracket(lower: number, upper: number): number {
+  if (lower > 0 && upper > 4 * lower) return Math.sqrt(lower * upper)
+  return 0.5 * (lower + upper)
+}
+
+/**
+ * Safeguarded Rayleigh quotient iteration, in place: x ← (K − σM)⁻¹ M x, σ ← ρ(x).
+ * ‖x‖_M / ‖y‖_M bounds |λ − σ| for some eigenvalue λ: it is exactly the M⁻¹-norm residual
+ * of y/‖y‖_M at σ. With a bracket, every factorisation's Sturm count also tightens it, and a
+ * quotient that leaves it is replaced by bisection. Iterates are not normalised (only
+ * ratios matter). `near` are found modes (and the level's locked ones) kept M-orthogonal.
+ */
+function refineMode(level: Level, x: Float64Array, startValue: number, bracket: Bracket | null, near: Float64Array[]): RefinedMode {
+  const { pencil, context } = level
+  const tol = context.tolerance
+  const keep = [...level.locked, ...near]
+  const keepM = [...level.lockedM]
+  if (keep.length && level.scratch.length === 0) level.scratch = new Float64Array(level.order)
+  if (keep.length) orthogonalise(level, x, keep, keepM)
+  let sigma = startValue
+  let value = startValue
+  let converged = false
+  let previousBound = Infinity
+  let massNorm2 = NaN
+  let largest = NaN
+  const maxIterations = bracket ? 80 : 10
+  for (let iteration = 0; iteration < maxIterations; iteration++) {
+    const step = inverseIterationStepInPlace(pencil, sigma, x, level.scratch, factorizationOf(level), level.block)
+    context.factorizations++
+    let shiftIsAbove = false
+    if (bracket) {
+      if (step.negativePivots >= bracket.index) {
+        bracket.upper = Math.min(bracket.upper, sigma)
+        shiftIsAbove = true
+      } else bracket.lower = Math.max(bracket.lower, sigma)
+    }
+    let rho = step.rayleigh
+    massNorm2 = step.yMy
+    largest = step.largest
+    if (keep.length) {
+      orthogonalise(level, x, keep, keepM)
+      massNorm2 = quadraticForm(pencil.mass, x)
+      rho = quadraticForm(pencil.stiffness, x) / massNorm2
+      largest = NaN
+    }
+    if (!(massNorm2 > 0 && Number.isFinite(massNorm2) && Number.isFinite(rho))) break
+    const bound = Math.sqrt(step.xMx / massNorm2)
+    value = rho
+    if (massNorm2 > 1e200 || massNorm2 < 1e-200) {
+      const s = 1 / Math.sqrt(massNorm2)
+      for (let i = 0; i < x.length; i++) x[i] *= s
+      massNorm2 = 1
+      largest *= s
+    }
+    // Is the eigenvalue within the bound of σ the one we look for? With a bracket it must be.
+    const identified = !bracket || (shiftIsAbove ? sigma - bound >= bracket.lower : sigma + bound <= bracket.upper)
+    const scale = Math.abs(sigma) + pencilNorms(pencil).stiffness * 1e-300
+    if (identified && bound <= tol * scale) {
+      converged = true
+      break
+    }
+    // Round-off floor: the bound stopped shrinking at a level already far below any use.
+    if (identified && iteration >= 2 && bound > 0.1 * previousBound && bound <= 1e-9 * scale) {
+      converged = true
+      break
+    }
+    previousBound = bound
+    if (bracket && !(rho > bracket.lower && rho < bracket.upper)) sigma = splitBracket(bracket.lower, bracket.upper)
+    else sigma = rho
+  }
+  if (Number.isFinite(largest) && Number.isFinite(massNorm2)) context.vectorInfo.set(x, { massNorm2, largest })
+  return { value, converged, vector: x }
+}
+
+/** Bisection on Sturm counts with every sample kept, so brackets are shared between modes. */
+class SpectrumSlicer {
+  private readonly shifts: number[] = [0]
+  private readonly counts: number[]
+
+  constructor(
+    private readonly level: Level,
+    rigidBodyModes: number,
+  ) {
+    // K is positive semi-definite: nothing lies below 0; rigid modes sit at 0 itself.
+    this.counts = [rigidBodyModes]
+  }
+
+  count(shift: number): number {
+    const f = factorShifted(this.level.pencil, shift, factorizationOf(this.level))
+    this.level.context.factorizations++
+    let i = 0
+    while (i < this.shifts.length && this.shifts[i] < shift) i++
+    this.shifts.splice(i, 0, shift)
+    this.counts.splice(i, 0, f.negativePivots)
+    return f.negativePivots
+  }
+
+  /** Tightest bracket of the index-th eigenvalue among the samples taken so far. */
+  private bracket(index: number): Bracket {
+    let lower = 0
+    let upper = Infinity
+    for (let i = 0; i < this.shifts.length; i++) {
+      if (this.counts[i] < index) lower = Math.max(lower, this.shifts[i])
+      else upper = Math.min(upper, this.shifts[i])
+    }
+    return { lower, upper, index }
+  }
+
+  private countAt(shift: number): number {
+    const i = this.shifts.indexOf(shift)
+    return i >= 0 ? this.counts[i] : this.count(shift)
+  }
+
+  /** Narrows until the bracket holds only the index-th eigenvalue and is relatively narrow. */
+  isolate(index: number, relativeWidth: number): Bracket {
+    let b = this.bracket(index)
+    if (!Number.isFinite(b.upper)) {
+      const norms = pencilNorms(this.level.pencil)
+      let shift = Math.max(b.lower * 2, norms.stiffness / norms.mass)
+      for (let i = 0; i < 2100 && this.count(shift) < index; i++) shift *= 2
+      b = this.bracket(index)
+      if (!Number.isFinite(b.upper)) throw new RangeError(`no upper bound found for eigenvalue ${index}`)
+    }
+    for (let i = 0; i < 200; i++) {
+      const isolated = this.countAt(b.lower) === index - 1 && this.countAt(b.upper) === index
+      if (isolated && b.upper - b.lower <= relativeWidth * b.upper) return b
+      const mid = splitBracket(b.lower, b.upper)
+      if (mid <= b.lower || mid >= b.upper) return b
+      this.count(mid)
+      b = this.bracket(index)
+    }
+    return b
+  }
+}
+
+/**
+ * Sturm check of one level's modes (sorted), and a fresh search for every index the
+ * check cannot vouch for. Returns the elastic modes sorted, with the final check.
+ */
+function verifyAndRepair(
+  level: Level,
+  modes: RefinedMode[],
+  rigidBodyModes: number,
+  elastic: number,
+  nextEstimate: number | null,
+): { values: number[]; vectors: Float64Array[]; sturm: SturmCheck } {
+  const { pencil, context } = level
+  const target = rigidBodyModes + elastic
+  const m = modes.length
+  const values = modes.map((f) => f.value)
+  // Interval boundaries: 0, midpoints between found values, and a point above the last.
+  const bounds: number[] = [0]
+  for (let i = 0; i + 1 < m; i++) bounds.push(0.5 * (values[i] + values[i + 1]))
+  let top = 0
+  if (m > 0) {
+    const last = values[m - 1]
+    top = nextEstimate !== null && nextEstimate > last ? 0.5 * (last + nextEstimate) : last * 1.5
+    bounds.push(top)
+  }
+  const counts = [rigidBodyModes, ...sturmCounts(pencil, bounds.slice(1))]
+  // Pull the top shift down towards the last value until nothing extra lies below it.
+  for (let i = 0; i < 40 && m > 0 && counts[m] > target; i++) {
+    top = values[m - 1] + 0.125 * (top - values[m - 1])
+    if (!(top > values[m - 1])) break
+    bounds[m] = top
+    counts[m] = sturmCounts(pencil, [top])[0]
+  }
+  const accepted = new Map<number, RefinedMode>()
+  const redo: { index: number; start: Float64Array | null }[] = []
+  for (let i = 1; i <= m; i++) {
+    const first = Math.max(counts[i - 1] + 1, rigidBodyModes + 1)
+    const last = Math.min(counts[i], target)
+    const onlyOne = counts[i] - counts[i - 1] === 1
+    for (let index = first; index <= last; index++) {
+      if (onlyOne && modes[i - 1].converged) accepted.set(index, modes[i - 1])
+      else redo.push({ index, start: index === first ? modes[i - 1].vector : null })
+    }
+  }
+  // Indices above the top shift (modes lost as duplicates): search above it.
+  const highest = m > 0 ? counts[m] : rigidBodyModes
+  for (let index = Math.max(highest + 1, rigidBodyModes + 1); index <= target; index++) redo.push({ index, start: null })
+  if (redo.length > 0) {
+    const slicer = new SpectrumSlicer(level, rigidBodyModes)
+    for (let i = 1; i < bounds.length; i++) slicer.count(bounds[i])
+    for (const job of redo) {
+      context.repairedModes++
+      const bracket = slicer.isolate(job.index, 0.02)
+      const x = job.start ? Float64Array.from(job.start) : randomVector(level.order, context.random)
+      const start = 0.5 * (bracket.lower + bracket.upper)
+      const near = [...accepted.values()].filter((f) => Math.abs(f.value - start) <= 1e-2 * start).map((f) => f.vector)
+      accepted.set(job.index, refineMode(level, x, start, bracket, near))
+    }
+  }
+  const indices = [...accepted.keys()].sort((a, b) => a - b)
+  const finalValues = indices.map((i) => accepted.get(i)!.value)
+  const finalVectors = indices.map((i) => accepted.get(i)!.vector)
+  refineClusters(level, finalValues, finalVectors)
+  const sturm =
+    redo.length === 0 && m === elastic
+      ? sturmCheckFromCounts(bounds, counts, rigidBodyModes)
+      : checkLowestEigenvalues(pencil, rigidBodyModes ? [0, ...finalValues] : finalValues, top)
+  return { values: finalValues, vectors: finalVectors, sturm }
+}
+
+/** Consecutive eigenvalues closer than this (relative) are refined together. */
+const CLUSTER_GAP = 1e-4
+
+/**
+ * Rayleigh–Ritz within each cluster of close eigenvalues. Inverse iteration pins down the
+ * cluster's invariant subspace far better than its individual vectors (their angle errors
+ * grow as 1/gap); the small projected problem separates them again, with residuals at round-off.
+ */
+function refineClusters(level: Level, values: number[], vectors: Float64Array[]): void {
+  const { pencil, context } = level
+  let first = 0
+  while (first < values.length) {
+    let last = first
+    while (last + 1 < values.length && values[last + 1] - values[last] <= CLUSTER_GAP * Math.abs(values[last + 1])) last++
+    if (last > first) {
+      const members = vectors.slice(first, last + 1)
+      const gram = (matrix: typeof pencil.stiffness) => members.map((u) => members.map((v) => bilinearForm(matrix, u, v)))
+      const ritz = smallGeneralizedEigen(gram(pencil.stiffness), gram(pencil.mass))
+      const combined = ritz.vectors.map((coefficients) => {
+        const out = new Float64Array(level.order)
+        coefficients.forEach((c, j) => {
+          const v = members[j]
+          for (let i = 0; i < out.length; i++) out[i] += c * v[i]
+        })
+        return out
+      })
+      combined.forEach((v, j) => {
+        values[first + j] = ritz.values[j]
+        vectors[first + j] = v
+        context.vectorInfo.delete(v)
+      })
+    }
+    first = last + 1
+  }
+}
+
+/** The check already made on the accepted modes: counts at the midpoints and the top shift. */
+function sturmCheckFromCounts(bounds: number[], counts: number[], rigidBodyModes: number): SturmCheck {
+  // bounds[0] = 0 was not counted; with a rigid mode the first midpoint counts it.
+  const shifts = bounds.slice(1)
+  const measured = counts.slice(1)
+  const expected = shifts.map((_, i) => rigidBodyModes + i + 1)
+  return { shifts, counts: measured, expected, passed: measured.every((c, i) => c === expected[i]) }
+}
+
+/** Scales to φᵀMφ = 1 and makes the largest component positive, so shapes are repeatable. */
+function normaliseAndOrient(pencil: BandPencil, v: Float64Array, known?: { massNorm2: number; largest: number }): void {
+  if (known) {
+    const s = (known.largest < 0 ? -1 : 1) / Math.sqrt(known.massNorm2)
+    for (let i = 0; i < v.length; i++) v[i] *= s
+    return
+  }
+  const s = 1 / Math.sqrt(quadraticForm(pencil.mass, v))
+  let big = 0
+  for (let i = 0; i < v.length; i++) {
+    const x = v[i] * s
+    v[i] = x
+    if (Math.abs(x) > Math.abs(big)) big = x
+  }
+  if (big < 0) for (let i = 0; i < v.length; i++) v[i] = -v[i]
+}

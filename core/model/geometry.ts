@@ -1,0 +1,79 @@
+/** Section areas, positions along the bar, masses: plain geometry of a project. */
+import type { Material, Project, Section, Segment } from './project'
+import { libraryMaterial } from './materials'
+
+/** Cross-section area at fraction t ∈ [0, 1] along a segment (a cone's area is quadratic in t). */
+export function sectionArea(section: Section, t = 0): number {
+  switch (section.shape) {
+    case 'solid':
+      return (Math.PI / 4) * section.diameter ** 2
+    case 'tube':
+      return (Math.PI / 4) * (section.outerDiameter ** 2 - section.innerDiameter ** 2)
+    case 'rectangle':
+      return section.width * section.height
+    case 'area':
+      return section.area
+    case 'cone': {
+      const d = section.startDiameter + (section.endDiameter - section.startDiameter) * t
+      return (Math.PI / 4) * d * d
+    }
+  }
+}
+
+/** ∫₀¹ A(t) dt: the mean area of a segment (for a cone, π/4 (d₀² + d₀d₁ + d₁²)/3). */
+export function meanSectionArea(section: Section): number {
+  if (section.shape !== 'cone') return sectionArea(section)
+  const { startDiameter: a, endDiameter: b } = section
+  return ((Math.PI / 4) * (a * a + a * b + b * b)) / 3
+}
+
+/** Outer size of a section for drawings: diameter, or the larger side; an equivalent diameter for `area`. */
+export function sectionOuterSize(section: Section, t = 0): number {
+  switch (section.shape) {
+    case 'solid':
+      return section.diameter
+    case 'tube':
+      return section.outerDiameter
+    case 'rectangle':
+      return Math.max(section.width, section.height)
+    case 'area':
+      return Math.sqrt((4 * section.area) / Math.PI)
+    case 'cone':
+      return section.startDiameter + (section.endDiameter - section.startDiameter) * t
+  }
+}
+
+/** The material a segment names: the project's own first, then the built-in library. */
+export function resolveMaterial(project: Pick<Project, 'materials'>, id: string): Material | undefined {
+  const own = project.materials.find((m) => m.id === id)
+  if (own) return own
+  const lib = libraryMaterial(id)
+  return lib ? { id: lib.id, name: lib.name, youngsModulus: lib.youngsModulus, density: lib.density } : undefined
+}
+
+export function materialOf(project: Pick<Project, 'materials'>, segment: Segment): Material {
+  const m = resolveMaterial(project, segment.material)
+  if (!m) throw new RangeError(`unknown material "${segment.material}"`)
+  return m
+}
+
+/** x of every segment boundary, from 0 to the total length. */
+export function segmentBoundaries(segments: readonly Segment[]): number[] {
+  const xs = [0]
+  for (const s of segments) xs.push(xs[xs.length - 1] + s.length)
+  return xs
+}
+
+export function totalLength(segments: readonly Segment[]): number {
+  let sum = 0
+  for (const s of segments) sum += s.length
+  return sum
+}
+
+/** Mass of the bar itself plus attached point masses, kg. */
+export function totalMass(project: Project): number {
+  let m = 0
+  for (const s of project.segments) m += materialOf(project, s).density * meanSectionArea(s.section) * s.length
+  for (const pm of project.masses) m += pm.mass
+  return m
+}

@@ -1,0 +1,60 @@
+/**
+ * Convergence behaviour of the element and mass choices on a uniform bar, against the
+ * closed form (check-values.md §3; Hughes, The Finite Element Method, from memory):
+ * consistent mass converges as O(h²) from above, lumped as O(h²) from below, their average
+ * ("mixed") as O(h⁴), 3-node consistent elements as O(h⁴).
+ */
+import { describe, expect, test } from 'vitest'
+import { convergenceStudy } from '../../core/analysis/convergence'
+import { analyseProject } from '../../core/analysis/modal-analysis'
+import { uniformBar } from '../helpers'
+
+describe('observed orders on a uniform fixed–free bar', () => {
+  const project = uniformBar({ length: 1 })
+  const study = convergenceStudy(project, { modes: 3, densities: [8, 16, 32, 64] })
+  const series = (order: 1 | 2, mass: string) => study.series.find((s) => s.elementOrder === order && s.mass === mass)!
+  test.each([
+    [1, 'consistent', 2, 1],
+    [1, 'lumped', 2, -1],
+    [1, 'mixed', 4, 0],
+    [2, 'consistent', 4, 1],
+  ] as const)('%i-order elements, %s mass: order %i', (order, mass, expectedOrder, sign) => {
+    const s = series(order, mass)
+    s.observedOrder.forEach((p, m) => {
+      expect(p, `mode ${m + 1}: observed order ${p}, expected ${expectedOrder} ± 0.1`).not.toBeNull()
+      expect(Math.abs((p as number) - expectedOrder), `mode ${m + 1}: observed order ${p}`).toBeLessThanOrEqual(0.1)
+    })
+    if (sign !== 0) {
+      for (const point of s.points) for (const e of point.errors) expect(Math.sign(e as number), `error ${e} has the wrong sign`).toBe(sign)
+    }
+  })
+  test('Richardson estimates are at least 100 times closer to the exact frequencies than the finest mesh', () => {
+    const s = series(1, 'consistent')
+    const finest = s.points[s.points.length - 1]
+    s.extrapolatedHz.forEach((f, m) => {
+      const ref = study.referenceHz[m]
+      const extrapolated = Math.abs((f as number) - ref) / ref
+      const mesh = Math.abs(finest.errors[m] as number)
+      expect(extrapolated, `mode ${m + 1}: Richardson error ${extrapolated}, finest mesh ${mesh}`).toBeLessThan(mesh / 100)
+    })
+  })
+})
+
+describe('consistent-mass 2-node frequencies are upper bounds (Rayleigh–Ritz)', () => {
+  test('never below the exact frequency on a stepped, loaded bar', () => {
+    const project = uniformBar({
+      extra: {
+        segments: [
+          { length: 0.7, material: 'steel', section: { shape: 'solid', diameter: 0.03 } },
+          { length: 0.5, material: 'steel', section: { shape: 'cone', startDiameter: 0.03, endDiameter: 0.015 } },
+        ],
+        masses: [{ at: 1.2, mass: 2 }],
+        springs: [{ at: 0.4, stiffness: 5e7 }],
+      },
+    })
+    for (const N of [2, 5, 20, 80]) {
+      const a = analyseProject(project, { elementOrder: 1, elementsPerSegment: N, mass: 'consistent', modes: 6 })
+      for (const m of a.modes) expect(m.frequencyHz, `N = ${N}, mode ${m.mode}`).toBeGreaterThanOrEqual((m.referenceHz as number) * (1 - 1e-13))
+    }
+  })
+})
