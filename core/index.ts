@@ -1,0 +1,13 @@
+/** Rodwave's engine: the public API the desktop app and the command line use. */
+export * from './model/project'
+export * from './model/units'
+export * from './model/materials'
+export * from './model/geometry'
+export * from './model/project-schema'
+export * from './model/project-file'
+export * from './analysis/modal-analysis'
+export * from './analysis/modal-summary'
+export * from './analysis/convergence'
+export * from './analysis/resonance'
+export { exactReference, type ExactReference } from './exact/reference'
+export { lowestModes, checkLowestEigenvalues, type LowestModes, type SturmCheck } from './linalg/lowest-modes'

@@ -1,0 +1,88 @@
+/**
+ * The one contract between the window and the main process: every IPC channel with its
+ * request and response types, and the bridge object the preload exposes as
+ * `window.rodwave`. The renderer imports this file with `import type` only; in a plain
+ * browser it gets a browser implementation of the same bridge (downloads and uploads
+ * instead of file dialogs).
+ */
+
+/** Result of asking for a project file. `text` is the file's content, unparsed. */
+export type OpenResult =
+  | { readonly kind: 'opened'; readonly path: string; readonly name: string; readonly text: string }
+  | { readonly kind: 'cancelled' }
+  | { readonly kind: 'error'; readonly message: string }
+
+export type SaveResult =
+  | { readonly kind: 'saved'; readonly path: string; readonly name: string }
+  | { readonly kind: 'cancelled' }
+  | { readonly kind: 'error'; readonly message: string }
+
+export interface SaveRequest {
+  /** Where to save; null asks for a place (Save As). */
+  readonly path: string | null
+  readonly suggestedName: string
+  /** The complete project file text. */
+  readonly text: string
+}
+
+export type ExportKind = 'csv' | 'html' | 'pdf'
+
+export interface ExportRequest {
+  readonly kind: ExportKind
+  readonly suggestedName: string
+  /** CSV text, or the report's self-contained HTML (also the source of the PDF). */
+  readonly content: string
+}
+
+/** Commands from the application menu, forwarded to the window. */
+export type MenuCommand = 'new' | 'open' | 'save' | 'save-as' | 'export-csv' | 'export-report-html' | 'export-report-pdf' | 'undo' | 'redo' | 'cautions'
+
+export interface DocumentState {
+  readonly dirty: boolean
+  readonly title: string
+}
+
+/** Channel names, with the request and response of each (invoke) or the payload (events). */
+export const CHANNELS = {
+  openProject: 'rodwave:open-project',
+  openRecent: 'rodwave:open-recent',
+  saveProject: 'rodwave:save-project',
+  exportFile: 'rodwave:export-file',
+  recentFiles: 'rodwave:recent-files',
+  demoProject: 'rodwave:demo-project',
+  setDocumentState: 'rodwave:set-document-state',
+  writeRecovery: 'rodwave:write-recovery',
+  readRecovery: 'rodwave:read-recovery',
+  clearRecovery: 'rodwave:clear-recovery',
+  menuCommand: 'rodwave:menu-command',
+} as const
+
+export interface ChannelTypes {
+  [CHANNELS.openProject]: { request: void; response: OpenResult }
+  [CHANNELS.openRecent]: { request: string; response: OpenResult }
+  [CHANNELS.saveProject]: { request: SaveRequest; response: SaveResult }
+  [CHANNELS.exportFile]: { request: ExportRequest; response: SaveResult }
+  [CHANNELS.recentFiles]: { request: void; response: string[] }
+  [CHANNELS.demoProject]: { request: void; response: { name: string; text: string } }
+  [CHANNELS.setDocumentState]: { request: DocumentState; response: void }
+  [CHANNELS.writeRecovery]: { request: string; response: void }
+  [CHANNELS.readRecovery]: { request: void; response: string | null }
+  [CHANNELS.clearRecovery]: { request: void; response: void }
+}
+
+/** What the preload exposes as window.rodwave (and the browser build provides itself). */
+export interface RodwaveBridge {
+  readonly platform: 'electron' | 'browser'
+  openProject(): Promise<OpenResult>
+  openRecent(path: string): Promise<OpenResult>
+  saveProject(request: SaveRequest): Promise<SaveResult>
+  exportFile(request: ExportRequest): Promise<SaveResult>
+  recentFiles(): Promise<string[]>
+  demoProject(): Promise<{ name: string; text: string }>
+  setDocumentState(state: DocumentState): Promise<void>
+  writeRecovery(text: string): Promise<void>
+  readRecovery(): Promise<string | null>
+  clearRecovery(): Promise<void>
+  /** Subscribes to menu commands; returns the unsubscribe function. */
+  onMenuCommand(listener: (command: MenuCommand) => void): () => void
+}
