@@ -2,6 +2,7 @@
 // core/ is pure TypeScript (no Node, Electron, Vue or DOM), nothing imports renderer/.
 import js from '@eslint/js'
 import tseslint from 'typescript-eslint'
+import pluginVue from 'eslint-plugin-vue'
 import globals from 'globals'
 
 const nodeModules = ['node:*', 'fs', 'fs/*', 'path', 'os', 'child_process', 'worker_threads', 'url', 'util', 'crypto', 'stream']
@@ -10,6 +11,21 @@ export default tseslint.config(
   { ignores: ['dist/**', 'release/**', 'node_modules/**', 'bench/results/**', 'coverage/**', 'test-results/**'] },
   js.configs.recommended,
   ...tseslint.configs.recommended,
+  ...pluginVue.configs['flat/recommended'],
+  {
+    files: ['**/*.vue'],
+    languageOptions: { parserOptions: { parser: tseslint.parser }, globals: { ...globals.browser } },
+  },
+  {
+    files: ['renderer/**/*.ts'],
+    languageOptions: { globals: { ...globals.browser } },
+    rules: {
+      'no-restricted-imports': [
+        'error',
+        { patterns: [{ group: nodeModules, message: 'The renderer runs sandboxed: no Node modules; ask the preload bridge.' }, { group: ['electron'], message: 'The renderer reaches Electron only through window.rodwave.' }] },
+      ],
+    },
+  },
   {
     rules: {
       '@typescript-eslint/no-unused-vars': ['error', { argsIgnorePattern: '^_', varsIgnorePattern: '^_' }],
@@ -25,7 +41,7 @@ export default tseslint.config(
         {
           patterns: [
             { group: nodeModules, message: 'core/ is pure TypeScript: no Node modules (put file and process work in bin/ or electron/).' },
-            { group: ['electron', 'vue', 'pinia', 'echarts/*', 'vue-echarts'], message: 'core/ knows nothing of the app frameworks.' },
+            { group: ['electron', 'vue', 'pinia', 'vue-echarts'], message: 'core/ knows nothing of the app frameworks.' },
             { group: ['**/renderer/**', '**/electron/**', '**/bin/**'], message: 'core/ imports neither front end.' },
           ],
         },
