@@ -67,6 +67,8 @@ export function effectiveSettings(project: Project, overrides: AnalysisOverrides
 export interface AnalyseOptions {
   /** Skip the exact reference (tolerance scatter and sweeps do not need it). */
   readonly withReference?: boolean
+  /** A previous analysis of a slightly different part on the same mesh: its modes start the solver. */
+  readonly warmStart?: ModalAnalysis
 }
 
 /** Solves a validated project. */
@@ -80,7 +82,12 @@ export function analyseProject(project: Project, overrides: AnalysisOverrides = 
     mass: settings.mass,
   })
   const t1 = nowMs()
-  const solution = lowestModes(model.pencil, { modes: settings.modes })
+  const previous = options.warmStart
+  const warm =
+    previous && previous.model.dofNodes.length === model.dofNodes.length
+      ? { vectors: previous.vectors, rigidBodyModes: previous.modes.filter((m) => m.rigidBody).length }
+      : undefined
+  const solution = lowestModes(model.pencil, { modes: settings.modes, ...(warm ? { warmStart: warm } : {}) })
   const t2 = nowMs()
   const count = solution.eigenvalues.length
   const reference: ExactReference =

@@ -41,7 +41,16 @@ export function stationChain(project: Project): StationChain {
         ? (section.startDiameter + (section.endDiameter - section.startDiameter) * t1) /
           (section.startDiameter + (section.endDiameter - section.startDiameter) * t0)
         : 1
-    members.push({ length: x1 - x0, youngsModulus: material.youngsModulus, density: material.density, startArea: sectionArea(section, t0), diameterRatio })
+    members.push({
+      length: x1 - x0,
+      youngsModulus: material.youngsModulus,
+      density: material.density,
+      startArea: sectionArea(section, t0),
+      diameterRatio,
+      segment: s,
+      t0,
+      t1,
+    })
   }
   const stationIndex = (x: number) => {
     let best = 0

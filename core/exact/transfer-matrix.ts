@@ -20,6 +20,10 @@ export interface ExactMember {
   readonly startArea: number
   /** 1 for a uniform member; d_end / d_start for a solid cone. */
   readonly diameterRatio: number
+  /** The project segment the member belongs to, and the member's ends as fractions of it. */
+  readonly segment?: number
+  readonly t0?: number
+  readonly t1?: number
 }
 
 export interface MemberStiffness {

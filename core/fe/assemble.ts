@@ -38,18 +38,23 @@ export function assembleModel(project: Project, settings: AssemblySettings): Ass
   const bandwidth = settings.order
   const k = createBandMatrix(nodes, bandwidth)
   const m = createBandMatrix(nodes, bandwidth)
+  const materials = project.segments.map((segment) => materialOf(project, segment))
+  // Elements of equal length in a constant section share their matrices: compute once, reuse.
+  let cached: { segment: number; length: number; matrices: ReturnType<typeof barElementMatrices> } | null = null
   for (const element of mesh.elements) {
     const segment = project.segments[element.segment]
-    const material = materialOf(project, segment)
-    const { t0, t1 } = element
-    const matrices = barElementMatrices(
-      settings.order,
-      element.x1 - element.x0,
-      material.youngsModulus,
-      material.density,
-      (t) => sectionArea(segment.section, t0 + (t1 - t0) * t),
-      settings.mass,
-    )
+    const material = materials[element.segment]
+    const length = element.x1 - element.x0
+    let matrices
+    if (segment.section.shape === 'cone') {
+      const { t0, t1 } = element
+      matrices = barElementMatrices(settings.order, length, material.youngsModulus, material.density, (t) => sectionArea(segment.section, t0 + (t1 - t0) * t), settings.mass)
+    } else if (cached && cached.segment === element.segment && Math.abs(cached.length - length) <= 1e-13 * length) {
+      matrices = cached.matrices
+    } else {
+      matrices = barElementMatrices(settings.order, length, material.youngsModulus, material.density, { uniformArea: sectionArea(segment.section) }, settings.mass)
+      cached = { segment: element.segment, length, matrices }
+    }
     addElement(k, m, element.nodes, matrices.stiffness, matrices.mass)
   }
   project.masses.forEach((pm, i) => (m.rowSums[mesh.massNodes[i]] += pm.mass))
@@ -62,7 +67,8 @@ export function assembleModel(project: Project, settings: AssemblySettings): Ass
   const supportFull = hasSupport ? Float64Array.from(m.rowSums) : null
   if (last < first) throw new RangeError('the model has no unknowns')
   const pencil = { stiffness: removeEnds(k, first, last), mass: removeEnds(m, first, last) }
-  const dofNodes = Int32Array.from({ length: last - first + 1 }, (_, i) => first + i)
+  const dofNodes = new Int32Array(last - first + 1)
+  for (let i = 0; i < dofNodes.length; i++) dofNodes[i] = first + i
   return {
     mesh,
     pencil,

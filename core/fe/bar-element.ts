@@ -22,41 +22,61 @@ export interface ElementMatrices {
   readonly mass: Float64Array
 }
 
-/** Shape functions and their ξ-derivatives on [−1, 1]; nodes at ξ = −1, (0), 1. */
-function shape(order: ElementOrder, xi: number): { n: number[]; dn: number[] } {
-  if (order === 1) return { n: [(1 - xi) / 2, (1 + xi) / 2], dn: [-0.5, 0.5] }
-  return {
-    n: [(xi * (xi - 1)) / 2, 1 - xi * xi, (xi * (xi + 1)) / 2],
-    dn: [xi - 0.5, -2 * xi, xi + 0.5],
-  }
+/** Shape functions N_a and derivatives dN_a/dξ at the 4 Gauss points, per element order (computed once). */
+const GAUSS = gaussLegendre(4)
+const SHAPES: Record<ElementOrder, { n: number[][]; dn: number[][] }> = {
+  1: {
+    n: GAUSS.points.map((xi) => [(1 - xi) / 2, (1 + xi) / 2]),
+    dn: GAUSS.points.map(() => [-0.5, 0.5]),
+  },
+  2: {
+    n: GAUSS.points.map((xi) => [(xi * (xi - 1)) / 2, 1 - xi * xi, (xi * (xi + 1)) / 2]),
+    dn: GAUSS.points.map((xi) => [xi - 0.5, -2 * xi, xi + 0.5]),
+  },
 }
 
 /**
  * K and M of one element of length h. `area(t)` gives the section area at fraction
- * t ∈ [0, 1] along the element.
+ * t ∈ [0, 1] along the element; pass `uniformArea` instead when it is constant, which
+ * gives the closed forms EA/h·[1 −1; −1 1], ρAh/6·[2 1; 1 2] (2-node) and
+ * EA/3h·[7 −8 1; −8 16 −8; 1 −8 7], ρAh/30·[4 2 −1; 2 16 2; −1 2 4] (3-node) —
+ * the same integrals, without quadrature.
  */
 export function barElementMatrices(
   order: ElementOrder,
   length: number,
   youngsModulus: number,
   density: number,
-  area: (t: number) => number,
+  area: ((t: number) => number) | { uniformArea: number },
   massKind: MassMatrixKind,
 ): ElementMatrices {
   const nodes = order + 1
-  const rule = gaussLegendre(4)
   const k = new Float64Array(nodes * nodes)
   const consistent = new Float64Array(nodes * nodes)
-  const jacobian = length / 2
-  for (let g = 0; g < rule.points.length; g++) {
-    const xi = rule.points[g]
-    const a = area((xi + 1) / 2)
-    const { n, dn } = shape(order, xi)
-    const w = rule.weights[g] * jacobian
-    for (let i = 0; i < nodes; i++) {
-      for (let j = 0; j < nodes; j++) {
-        k[i * nodes + j] += (w * youngsModulus * a * dn[i] * dn[j]) / (jacobian * jacobian)
-        consistent[i * nodes + j] += w * density * a * n[i] * n[j]
+  if (typeof area !== 'function') {
+    const ea = (youngsModulus * area.uniformArea) / length
+    const m = density * area.uniformArea * length
+    const kUnit = order === 1 ? [1, -1, -1, 1] : [7 / 3, -8 / 3, 1 / 3, -8 / 3, 16 / 3, -8 / 3, 1 / 3, -8 / 3, 7 / 3]
+    const mUnit = order === 1 ? [2 / 6, 1 / 6, 1 / 6, 2 / 6] : [4 / 30, 2 / 30, -1 / 30, 2 / 30, 16 / 30, 2 / 30, -1 / 30, 2 / 30, 4 / 30]
+    for (let i = 0; i < kUnit.length; i++) {
+      k[i] = ea * kUnit[i]
+      consistent[i] = m * mUnit[i]
+    }
+  } else {
+    const { n: shapeValues, dn: shapeDerivatives } = SHAPES[order]
+    const jacobian = length / 2
+    for (let g = 0; g < GAUSS.points.length; g++) {
+      const a = area((GAUSS.points[g] + 1) / 2)
+      const n = shapeValues[g]
+      const dn = shapeDerivatives[g]
+      const w = GAUSS.weights[g] * jacobian
+      const stiffnessWeight = (w * youngsModulus * a) / (jacobian * jacobian)
+      const massWeight = w * density * a
+      for (let i = 0; i < nodes; i++) {
+        for (let j = 0; j < nodes; j++) {
+          k[i * nodes + j] += stiffnessWeight * dn[i] * dn[j]
+          consistent[i * nodes + j] += massWeight * n[i] * n[j]
+        }
       }
     }
   }

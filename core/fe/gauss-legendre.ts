@@ -24,3 +24,41 @@ const RULES: Record<number, QuadratureRule> = {
 export function gaussLegendre(points: 1 | 2 | 3 | 4): QuadratureRule {
   return RULES[points]
 }
+
+const generated = new Map<number, QuadratureRule>()
+
+/**
+ * n-point Gauss–Legendre rule for any n, by Newton's method on P_n from the Chebyshev-like
+ * start cos(π(i − ¼)/(n + ½)), the textbook construction (e.g. Press et al., Numerical
+ * Recipes, §4.6 "gauleg", from memory). Used for the smooth integrands of exact mode shapes.
+ */
+export function gaussLegendreRule(n: number): QuadratureRule {
+  if (n >= 1 && n <= 4) return RULES[n]
+  const cached = generated.get(n)
+  if (cached) return cached
+  const points: number[] = new Array(n)
+  const weights: number[] = new Array(n)
+  for (let i = 1; i <= Math.ceil(n / 2); i++) {
+    let z = Math.cos((Math.PI * (i - 0.25)) / (n + 0.5))
+    let derivative = 0
+    for (let iteration = 0; iteration < 100; iteration++) {
+      let p0 = 1
+      let p1 = 0
+      for (let j = 1; j <= n; j++) {
+        const p2 = p1
+        p1 = p0
+        p0 = ((2 * j - 1) * z * p1 - (j - 1) * p2) / j
+      }
+      derivative = (n * (z * p0 - p1)) / (z * z - 1)
+      const step = p0 / derivative
+      z -= step
+      if (Math.abs(step) < 1e-16) break
+    }
+    points[i - 1] = -z
+    points[n - i] = z
+    weights[i - 1] = weights[n - i] = 2 / ((1 - z * z) * derivative * derivative)
+  }
+  const rule = { points, weights }
+  generated.set(n, rule)
+  return rule
+}

@@ -45,6 +45,12 @@ export interface LowestModesOptions {
   readonly seed?: number
   /** Relative residual bound at which a Rayleigh quotient iteration stops (default 1e-11). */
   readonly tolerance?: number
+  /**
+   * Modes of a nearby problem of the same size (a previous solve of a slightly changed part):
+   * they start the iterations directly, skipping the coarse levels. The Sturm check still
+   * decides what is accepted, so a poor start costs time, never correctness.
+   */
+  readonly warmStart?: { readonly vectors: readonly Float64Array[]; readonly rigidBodyModes: number }
 }
 
 export interface SturmCheck {
@@ -133,7 +139,9 @@ export function lowestModes(pencil: BandPencil, options: LowestModesOptions): Lo
     random: seededRandom(options.seed ?? 20261201),
     tolerance: options.tolerance ?? 1e-11,
   }
-  const result = solveLevel(pencil, Math.min(options.modes, n), context)
+  const warm = options.warmStart
+  const usable = warm && warm.vectors.length > warm.rigidBodyModes && warm.vectors.every((v) => v.length === n) ? warm : undefined
+  const result = solveLevel(pencil, Math.min(options.modes, n), context, usable)
   const eigenvalues = new Float64Array(result.rigidBodyModes + result.values.length)
   const vectors: Float64Array[] = []
   if (result.rigidVector) vectors.push(result.rigidVector)
@@ -216,7 +224,7 @@ function factorizationOf(level: Level): ShiftedFactorization {
   return level.factorization
 }
 
-function solveLevel(pencil: BandPencil, modes: number, context: Context): LevelResult {
+function solveLevel(pencil: BandPencil, modes: number, context: Context, warm?: LowestModesOptions['warmStart']): LevelResult {
   context.levels++
   const n = pencil.stiffness.order
   const rigidBodyModes = hasRigidBodyMode(pencil) ? 1 : 0
@@ -236,10 +244,13 @@ function solveLevel(pencil: BandPencil, modes: number, context: Context): LevelR
   const level = createLevel(pencil, context, rigidVector)
   let found: RefinedMode[]
   let nextEstimate: number | null = null
-  if (n >= COARSENING_RATIO * minimumCoarseOrder(total + 1)) {
+  if (warm) {
+    const guesses = warm.vectors.slice(warm.rigidBodyModes)
+    found = refineStarts(level, Math.min(elastic, guesses.length), (j) => Float64Array.from(guesses[j]))
+  } else if (n >= COARSENING_RATIO * minimumCoarseOrder(total + 1)) {
     const map = coarseningMap(n, COARSENING_RATIO)
     const coarse = solveLevel(coarsenPencil(pencil, map), total + 1, context)
-    found = refineFromCoarse(level, map, coarse.vectors.slice(0, elastic))
+    found = refineStarts(level, Math.min(elastic, coarse.vectors.length), (j) => interpolateSmooth(map, coarse.vectors[j], new Float64Array(n)))
     nextEstimate = coarse.values.length > elastic ? coarse.values[elastic] : null
   } else {
     found = []
@@ -257,39 +268,48 @@ function solveLevel(pencil: BandPencil, modes: number, context: Context): LevelR
 }
 
 /**
- * Fine-level refinement of interpolated coarse modes. On tridiagonal levels without a rigid
- * mode, modes go through the block sweeps four at a time: their Rayleigh quotients in one
- * sweep, then one inverse-iteration step with each mode at its own quotient. A mode the step
- * does not settle continues alone.
+ * Refinement of start vectors (interpolated coarse modes, or a previous solution's modes).
+ * On tridiagonal levels without a rigid mode, modes go through the block sweeps four at a
+ * time: their Rayleigh quotients in one sweep, then inverse-iteration steps with each mode at
+ * its own quotient (up to three passes). A mode the passes do not settle continues alone.
  */
-function refineFromCoarse(level: Level, map: CoarseningMap, coarseVectors: Float64Array[]): RefinedMode[] {
-  const { pencil, context, order: n } = level
+function refineStarts(level: Level, count: number, makeStart: (index: number) => Float64Array): RefinedMode[] {
+  const { pencil, context } = level
   const found: RefinedMode[] = []
   const blockable = pencil.stiffness.halfBandwidth === 1 && level.locked.length === 0
-  for (let first = 0; first < coarseVectors.length; first += BLOCK_WIDTH) {
-    const group = coarseVectors.slice(first, first + BLOCK_WIDTH)
-    const starts = group.map((v) => interpolateSmooth(map, v, new Float64Array(n)))
+  for (let first = 0; first < count; first += BLOCK_WIDTH) {
+    const starts = Array.from({ length: Math.min(BLOCK_WIDTH, count - first) }, (_, b) => makeStart(first + b))
     const energies = blockEnergies(pencil, starts)
+    const shifts = energies.map((e) => e.xKx / e.xMx)
     if (!blockable) {
-      starts.forEach((x, b) => {
-        const start = energies[b].xKx / energies[b].xMx
-        found.push(refineMode(level, x, start, null, nearbyVectors(found, start)))
-      })
+      starts.forEach((x, b) => found.push(refineMode(level, x, shifts[b], null, nearbyVectors(found, shifts[b]))))
       continue
     }
-    const shifts = energies.map((e) => e.xKx / e.xMx)
-    const steps = blockInverseIterationStep(pencil, shifts, starts, level.block)
-    context.factorizations += starts.length
-    steps.forEach((step, b) => {
-      const x = starts[b]
-      const bound = Math.sqrt(step.xMx / step.yMy)
-      if (bound <= context.tolerance * Math.abs(shifts[b]) && Number.isFinite(step.rayleigh)) {
-        context.vectorInfo.set(x, { massNorm2: step.yMy, largest: step.largest })
-        found.push({ value: step.rayleigh, converged: true, vector: x })
-      } else {
-        found.push(refineMode(level, x, step.rayleigh, null, nearbyVectors(found, step.rayleigh)))
-      }
-    })
+    const results: (RefinedMode | null)[] = starts.map(() => null)
+    let active = starts.map((_, b) => b)
+    for (let pass = 0; pass < 3 && active.length > 0; pass++) {
+      const steps = blockInverseIterationStep(
+        pencil,
+        active.map((b) => shifts[b]),
+        active.map((b) => starts[b]),
+        level.block,
+      )
+      context.factorizations += active.length
+      const still: number[] = []
+      steps.forEach((step, i) => {
+        const b = active[i]
+        const bound = Math.sqrt(step.xMx / step.yMy)
+        if (bound <= context.tolerance * Math.abs(shifts[b]) && Number.isFinite(step.rayleigh)) {
+          context.vectorInfo.set(starts[b], { massNorm2: step.yMy, largest: step.largest })
+          results[b] = { value: step.rayleigh, converged: true, vector: starts[b] }
+        } else {
+          shifts[b] = step.rayleigh
+          still.push(b)
+        }
+      })
+      active = still
+    }
+    results.forEach((r, b) => found.push(r ?? refineMode(level, starts[b], shifts[b], null, nearbyVectors(found, shifts[b]))))
   }
   return found
 }

@@ -8,7 +8,7 @@
  * with θ = nπh/L (fixed–fixed) or (2n−1)πh/(2L) (fixed–free). 1 − cos θ is evaluated as
  * 2 sin²(θ/2) so that the reference itself keeps its digits on fine meshes.
  */
-import { describe, test } from 'vitest'
+import { describe, expect, test } from 'vitest'
 import { analyseProject } from '../../core/analysis/modal-analysis'
 import { expectRelative, uniformBar } from '../helpers'
 
@@ -45,4 +45,18 @@ describe('2-node elements reproduce the discrete dispersion relation to 1e-12', 
       })
     }
   }
+})
+
+describe('element matrices', () => {
+  test('quadrature of a constant area reproduces the closed forms (both orders, every mass kind)', async () => {
+    const { barElementMatrices } = await import('../../core/fe/bar-element')
+    for (const order of [1, 2] as const) {
+      for (const mass of ['consistent', 'lumped', 'mixed'] as const) {
+        const closed = barElementMatrices(order, 0.37, 2.1e11, 7800, { uniformArea: 3e-4 }, mass)
+        const quadrature = barElementMatrices(order, 0.37, 2.1e11, 7800, () => 3e-4, mass)
+        closed.stiffness.forEach((v, i) => expectRelative(quadrature.stiffness[i], v, 1e-14, `K[${i}]`))
+        closed.mass.forEach((v, i) => (v === 0 ? expect(Math.abs(quadrature.mass[i])).toBeLessThan(1e-18) : expectRelative(quadrature.mass[i], v, 1e-14, `M[${i}]`)))
+      }
+    }
+  })
 })

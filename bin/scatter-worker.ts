@@ -1,0 +1,29 @@
+/** Worker thread of the scatter pool: solves shares of tolerance-scatter samples on request. */
+import { parentPort } from 'node:worker_threads'
+import { analyseProject, type ModalAnalysis } from '../core/analysis/modal-analysis'
+import { scatterFrequencies, type ScatterRun } from '../core/analysis/tolerance-scatter'
+import type { Project } from '../core/model/project'
+
+interface Job {
+  readonly id: number
+  readonly project: Project
+  readonly run: ScatterRun
+}
+
+// The nominal solution is kept between jobs on the same project text: it starts every sample.
+let nominalKey = ''
+let nominal: ModalAnalysis | undefined
+
+parentPort?.on('message', (job: Job) => {
+  try {
+    const key = JSON.stringify([job.project, job.run.modes])
+    if (key !== nominalKey) {
+      nominal = analyseProject(job.project, job.run.modes ? { modes: job.run.modes } : {}, { withReference: false })
+      nominalKey = key
+    }
+    const frequencies = scatterFrequencies(job.project, job.run, nominal)
+    parentPort?.postMessage({ id: job.id, frequencies }, [frequencies.buffer as ArrayBuffer])
+  } catch (error) {
+    parentPort?.postMessage({ id: job.id, error: error instanceof Error ? error.message : String(error) })
+  }
+})

@@ -1,0 +1,106 @@
+/**
+ * The tuner: one design parameter within bounds, chosen either to put mode N on a target
+ * frequency (a root of f_N(p) − target: bracketed on a grid, then Brent's method), or to
+ * make the smallest separation from every excitation band as large as possible (the
+ * objective scanned on a grid to bracket its best point, then Brent's minimisation of its
+ * negative). Frequencies come from the exact piecewise solver, so the search is free of
+ * discretisation error; the caller re-solves the tuned part to show its finite-element table.
+ */
+import { exactReference } from '../exact/reference'
+import type { Project } from '../model/project'
+import { brentMinimize } from '../optimize/brent-minimize'
+import { brentRoot } from '../optimize/brent-root'
+import { findParameter, withParameter, type DesignParameter } from './design-parameters'
+import { excitationBands, separationFromBand } from './resonance'
+
+export interface TuneRequest {
+  /** JSON path of the parameter, e.g. "segments[0].length". */
+  readonly parameter: string
+  readonly min: number
+  readonly max: number
+  /** With targetHz: the mode (1-based) to place. */
+  readonly mode?: number
+  readonly targetHz?: number
+  /** Modes considered for the separation objective (default: the project's analysis.modes). */
+  readonly modes?: number
+}
+
+export interface TunePoint {
+  readonly value: number
+  readonly frequenciesHz: number[]
+  /** Smallest |separation| over every elastic mode and band; null without excitations. */
+  readonly minSeparation: number | null
+}
+
+export interface TuneResult extends TunePoint {
+  readonly parameter: string
+  readonly label: string
+  readonly goal: 'target' | 'separation'
+  readonly before: TunePoint
+  readonly evaluations: number
+}
+
+export class TuneError extends Error {}
+
+const GRID = 40
+
+export function tuneParameter(project: Project, request: TuneRequest): TuneResult {
+  const parameter = findParameter(project, request.parameter)
+  if (!parameter) throw new TuneError(`"${request.parameter}" is not a parameter of this project (see the sensitivity command for the list)`)
+  const { min, max } = request
+  if (!(Number.isFinite(min) && Number.isFinite(max) && min > 0 && max > min)) throw new TuneError('the bounds must satisfy 0 < min < max')
+  const modes = Math.max(request.modes ?? project.analysis.modes, request.mode ?? 1)
+  const bands = excitationBands(project.excitations)
+  let evaluations = 0
+  const frequencies = (value: number): number[] => {
+    evaluations++
+    return exactReference(withParameter(project, parameter.target, value), modes).frequenciesHz
+  }
+  const separation = (fs: number[]): number | null => {
+    if (bands.length === 0) return null
+    let worst = Infinity
+    for (const f of fs) {
+      if (f === 0) continue
+      for (const band of bands) worst = Math.min(worst, Math.abs(separationFromBand(f, band.hz)))
+    }
+    return worst
+  }
+  const point = (value: number): TunePoint => {
+    const fs = frequencies(value)
+    return { value, frequenciesHz: fs, minSeparation: separation(fs) }
+  }
+  const before = point(parameter.value)
+  const grid = Array.from({ length: GRID + 1 }, (_, i) => min + ((max - min) * i) / GRID)
+
+  if (request.targetHz !== undefined) {
+    const mode = request.mode ?? 1
+    const target = request.targetHz
+    if (!(target > 0)) throw new TuneError('the target frequency must be > 0')
+    const offset = (value: number) => frequencies(value)[mode - 1] - target
+    const values = grid.map(offset)
+    const i = values.findIndex((v, j) => j > 0 && Math.sign(v) !== Math.sign(values[j - 1]))
+    if (i < 0) {
+      const range = values.map((v) => v + target)
+      throw new TuneError(
+        `no value of ${parameter.label} in [${min}, ${max}] puts mode ${mode} on ${target} Hz; over that range it moves between ${Math.min(...range).toPrecision(6)} and ${Math.max(...range).toPrecision(6)} Hz`,
+      )
+    }
+    const value = brentRoot(offset, grid[i - 1], grid[i], 1e-13)
+    return finish(parameter, 'target', point(value), before, evaluations)
+  }
+
+  if (bands.length === 0) throw new TuneError('the project has no excitations to separate from; give --mode and --target instead')
+  const objective = (value: number) => -(separation(frequencies(value)) ?? 0)
+  const scores = grid.map(objective)
+  let best = 0
+  for (let i = 1; i < scores.length; i++) if (scores[i] < scores[best]) best = i
+  const lo = grid[Math.max(best - 1, 0)]
+  const hi = grid[Math.min(best + 1, GRID)]
+  const refined = brentMinimize(objective, lo, hi, 1e-10)
+  const value = refined.fx <= scores[best] ? refined.x : grid[best]
+  return finish(parameter, 'separation', point(value), before, evaluations)
+}
+
+function finish(parameter: DesignParameter, goal: 'target' | 'separation', at: TunePoint, before: TunePoint, evaluations: number): TuneResult {
+  return { parameter: parameter.path, label: parameter.label, goal, ...at, before, evaluations }
+}
