@@ -6,6 +6,8 @@ import { estimateDegreesOfFreedom } from '../core/model/project-schema'
 import { LIMITS, type ElementOrder, type MassMatrixKind, type Project } from '../core/model/project'
 import type { CliIo, CliValues } from './cli'
 import { UsageError } from './cli'
+import { reportCommand } from './report-command'
+import { DESIGN_COMMANDS } from './design-commands'
 
 export interface CommandContext {
   readonly project: Project
@@ -38,9 +40,10 @@ const solve: Command = {
   async run({ project, values, overrides, io }) {
     if (values.json && values.csv) throw new UsageError('choose one of --json and --csv')
     const analysis = analyseProject(projectWithOverrides(project, overrides), overrides)
+    const document = solveDocument(analysis)
     if (values.csv) io.stdout(modalSummaryCsv(analysis))
-    else io.stdout(`${JSON.stringify(solveDocument(analysis), null, 2)}\n`)
-    if (!analysis.sturm.passed) io.stderr('rodwave: warning: the Sturm count does not confirm that no mode was missed\n')
+    else io.stdout(`${JSON.stringify(document, null, 2)}\n`)
+    for (const warning of document.warnings) io.stderr(`rodwave: warning: ${warning.message}\n`)
     const conflicts = analysis.resonance.filter((p) => p.status === 'conflict')
     if (values['fail-on-conflict'] && conflicts.length > 0) {
       io.stderr(`rodwave: ${conflicts.length} mode–excitation pair(s) inside the ${(100 * project.margin).toFixed(1)} % margin\n`)
@@ -68,7 +71,7 @@ const converge: Command = {
   },
 }
 
-export const COMMANDS: Record<string, Command> = { solve, converge }
+export const COMMANDS: Record<string, Command> = { solve, converge, report: reportCommand, ...DESIGN_COMMANDS }
 
 function seriesName(order: ElementOrder, mass: MassMatrixKind): string {
   return `${order === 1 ? '2-node' : '3-node'} elements, ${mass} mass`

@@ -55,6 +55,9 @@ export const CHANNELS = {
   readRecovery: 'rodwave:read-recovery',
   clearRecovery: 'rodwave:clear-recovery',
   menuCommand: 'rodwave:menu-command',
+  /** Added by the shell (event, main → window): a file chosen under File › Open recent.
+   *  The window asks about unsaved changes as for Open, then calls openRecent(path). */
+  openRecentRequest: 'rodwave:open-recent-request',
 } as const
 
 export interface ChannelTypes {
@@ -85,4 +88,7 @@ export interface RodwaveBridge {
   clearRecovery(): Promise<void>
   /** Subscribes to menu commands; returns the unsubscribe function. */
   onMenuCommand(listener: (command: MenuCommand) => void): () => void
+  /** Added by the shell, optional (the browser build has no application menu): subscribes
+   *  to File › Open recent choices; returns the unsubscribe function. */
+  onOpenRecentRequest?(listener: (path: string) => void): () => void
 }

@@ -46,6 +46,8 @@ export interface ModalAnalysis {
   readonly reference: ExactReference
   readonly totals: { length: number; mass: number; elements: number; dofs: number }
   readonly sturm: SturmCheck
+  /** Every mode's iteration met its tolerance (see linalg/lowest-modes.ts). */
+  readonly converged: boolean
   readonly resonance: ResonancePair[]
   readonly timing: { assembleMs: number; solveMs: number; referenceMs: number }
 }
@@ -143,6 +145,7 @@ export function analyseProject(project: Project, overrides: AnalysisOverrides = 
       dofs: model.dofNodes.length,
     },
     sturm: solution.sturm,
+    converged: solution.converged,
     resonance: resonancePairs(modes, project),
     timing: { assembleMs: t1 - t0, solveMs: t2 - t1, referenceMs: t3 - t2 },
   }

@@ -5,6 +5,7 @@
 import { hzToRpm } from '../model/units'
 import type { ModalAnalysis } from './modal-analysis'
 import { bandName, closestPair } from './resonance'
+import { modelWarnings } from './model-checks'
 
 export interface SolveDocument {
   title: string
@@ -25,6 +26,8 @@ export interface SolveDocument {
   reference: { method: 'exact' | null; formulation: string | null; frequenciesHz: number[] }
   resonance: { mode: number; excitation: string; order: number | null; excitationHz: [number, number]; separation: number; status: string }[]
   checks: { sturmCount: { passed: boolean; shifts: number[]; counts: number[]; expected: number[] } }
+  /** Plain-language warnings about trust in the results (model-checks.ts); empty when none. */
+  warnings: { code: string; message: string }[]
   timing: { assembleMs: number; solveMs: number }
 }
 
@@ -64,6 +67,7 @@ export function solveDocument(analysis: ModalAnalysis): SolveDocument {
     checks: {
       sturmCount: { passed: analysis.sturm.passed, shifts: analysis.sturm.shifts, counts: analysis.sturm.counts, expected: analysis.sturm.expected },
     },
+    warnings: modelWarnings(analysis).map((w) => ({ code: w.code, message: w.message })),
     timing: { assembleMs: analysis.timing.assembleMs, solveMs: analysis.timing.solveMs },
   }
 }

@@ -5,7 +5,7 @@
  * `formulation` says which. A model outside both would get method null.
  */
 import type { Project } from '../model/project'
-import { materialOf, sectionArea, segmentBoundaries, totalLength } from '../model/geometry'
+import { SAME_POSITION, materialOf, sectionArea, segmentBoundaries, totalLength } from '../model/geometry'
 import { tipMassRoots, tipSpringRoots, uniformBarFrequencies } from './closed-form'
 import type { ExactMember } from './transfer-matrix'
 import { exactAngularFrequencies, type StationChain } from './wittrick-williams'
@@ -20,7 +20,7 @@ export interface ExactReference {
 export function stationChain(project: Project): StationChain {
   const bounds = segmentBoundaries(project.segments)
   const length = bounds[bounds.length - 1]
-  const snap = 1e-12 * length
+  const snap = SAME_POSITION * length
   const positions = [...bounds, ...project.masses.map((m) => m.at), ...project.springs.map((s) => s.at)].sort((a, b) => a - b)
   const stations: number[] = []
   for (const x of positions) if (stations.length === 0 || x - stations[stations.length - 1] > snap) stations.push(x)
@@ -93,11 +93,11 @@ function closedFormReference(project: Project, count: number): ExactReference | 
   const freeEndAt = end === 'free' ? L : 0
   const area = sectionArea(segment.section)
   const toHz = (roots: number[]) => roots.map((lambda) => (lambda * c) / (2 * Math.PI * L))
-  if (project.masses.length === 1 && Math.abs(project.masses[0].at - freeEndAt) <= 1e-12 * L) {
+  if (project.masses.length === 1 && Math.abs(project.masses[0].at - freeEndAt) <= SAME_POSITION * L) {
     const ratio = (material.density * area * L) / project.masses[0].mass
     return { method: 'exact', formulation: 'closed form, fixed–free bar with a tip mass (λ tan λ = m/M)', frequenciesHz: toHz(tipMassRoots(ratio, count)) }
   }
-  if (project.springs.length === 1 && Math.abs(project.springs[0].at - freeEndAt) <= 1e-12 * L) {
+  if (project.springs.length === 1 && Math.abs(project.springs[0].at - freeEndAt) <= SAME_POSITION * L) {
     const ratio = (project.springs[0].stiffness * L) / (material.youngsModulus * area)
     return { method: 'exact', formulation: 'closed form, fixed–free bar with a tip spring (tan λ = −λ EA/kL)', frequenciesHz: toHz(tipSpringRoots(ratio, count)) }
   }

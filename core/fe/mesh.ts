@@ -4,7 +4,7 @@
  * equal elements of the chosen order.
  */
 import type { ElementOrder, Project } from '../model/project'
-import { segmentBoundaries } from '../model/geometry'
+import { SAME_POSITION, segmentBoundaries } from '../model/geometry'
 
 export interface MeshElement {
   readonly segment: number
@@ -34,19 +34,17 @@ export interface MeshDensity {
   readonly maxElementLength?: number
 }
 
-export function buildMesh(project: Pick<Project, 'segments' | 'masses' | 'springs'>, density: MeshDensity): Mesh {
+/** Segment pieces between attachments, and the number of elements each gets (the mesher's own rule). */
+function meshPlan(project: Pick<Project, 'segments' | 'masses' | 'springs'>, density: MeshDensity): { segment: number; from: number; to: number; count: number }[] {
   const bounds = segmentBoundaries(project.segments)
   const length = bounds[bounds.length - 1]
-  const snap = 1e-12 * length
+  const snap = SAME_POSITION * length
   const attachments = [...project.masses.map((m) => m.at), ...project.springs.map((s) => s.at)]
-  const xs: number[] = [0]
-  const elements: MeshElement[] = []
-  const segmentBoundaryNodes = [0]
+  const plan: { segment: number; from: number; to: number; count: number }[] = []
   for (let s = 0; s < project.segments.length; s++) {
     const a = bounds[s]
     const b = bounds[s + 1]
     const cuts = [a, ...attachments.filter((x) => x > a + snap && x < b - snap).sort((p, q) => p - q), b]
-    const segmentLength = b - a
     for (let c = 0; c + 1 < cuts.length; c++) {
       const from = cuts[c]
       const to = cuts[c + 1]
@@ -54,7 +52,31 @@ export function buildMesh(project: Pick<Project, 'segments' | 'masses' | 'spring
       const count =
         density.maxElementLength !== undefined
           ? Math.max(1, Math.ceil((to - from) / density.maxElementLength - 1e-9))
-          : Math.max(1, Math.round(((density.elementsPerSegment ?? 1) * (to - from)) / segmentLength))
+          : Math.max(1, Math.round(((density.elementsPerSegment ?? 1) * (to - from)) / (b - a)))
+      plan.push({ segment: s, from, to, count })
+    }
+  }
+  return plan
+}
+
+/** Number of elements the mesher will make, without making them. */
+export function countMeshElements(project: Pick<Project, 'segments' | 'masses' | 'springs'>, density: MeshDensity): number {
+  let total = 0
+  for (const piece of meshPlan(project, density)) total += piece.count
+  return total
+}
+
+export function buildMesh(project: Pick<Project, 'segments' | 'masses' | 'springs'>, density: MeshDensity): Mesh {
+  const bounds = segmentBoundaries(project.segments)
+  const xs: number[] = [0]
+  const elements: MeshElement[] = []
+  const segmentBoundaryNodes = [0]
+  const plan = meshPlan(project, density)
+  for (let s = 0, piece = 0; s < project.segments.length; s++) {
+    const a = bounds[s]
+    const segmentLength = bounds[s + 1] - a
+    for (; piece < plan.length && plan[piece].segment === s; piece++) {
+      const { from, to, count } = plan[piece]
       for (let e = 0; e < count; e++) {
         const x0 = e === 0 ? from : from + ((to - from) * e) / count
         const x1 = e === count - 1 ? to : from + ((to - from) * (e + 1)) / count

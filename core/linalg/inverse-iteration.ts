@@ -12,7 +12,8 @@
  * The backward sweep also accumulates yᵀKy and yᵀMy in the difference (energy) form,
  * so the Rayleigh quotient of y costs no extra pass.
  */
-import { factorShifted, pivotFloor, solveFactored, type BandPencil, type ShiftedFactorization } from './shifted-ldlt'
+import { factorShifted, hasTinyInteriorPivot, pivotFloor, solveFactored, type BandPencil, type ShiftedFactorization } from './shifted-ldlt'
+import { solveShiftedPivoted } from './pivoted-band-solve'
 import { multiplyBand, quadraticForm } from './symmetric-band-matrix'
 
 export interface InverseIterationStep {
@@ -25,6 +26,27 @@ export interface InverseIterationStep {
   rayleigh: number
   /** The entry of y largest in magnitude, with its sign (NaN when not tracked). */
   largest: number
+  /** True when an interior LDLᵀ pivot nearly vanished and y came from the pivoted solve instead. */
+  pivoted?: boolean
+}
+
+/** An interior pivot smaller than this, relative to its row's couplings, makes LDLᵀ back substitution unsafe. */
+const TINY_INTERIOR_PIVOT = 1e-8
+
+/**
+ * Redoes a step with the pivoted band solve (pivoted-band-solve.ts): y = (K − σM)⁻¹ M x,
+ * with the energies and largest entry of y. The Sturm count stays the LDLᵀ one (counts are
+ * reliable even when a pivot is tiny).
+ */
+function pivotedStep(pencil: BandPencil, shift: number, x: Float64Array, y: Float64Array, negativePivots: number): InverseIterationStep {
+  const mx = multiplyBand(pencil.mass, x, new Float64Array(x.length))
+  let xMx = 0
+  for (let i = 0; i < x.length; i++) xMx += x[i] * mx[i]
+  solveShiftedPivoted(pencil, shift, mx, y)
+  let largest = 0
+  for (let i = 0; i < y.length; i++) if (Math.abs(y[i]) > Math.abs(largest)) largest = y[i]
+  const yMy = quadraticForm(pencil.mass, y)
+  return { negativePivots, xMx, yMy, rayleigh: quadraticForm(pencil.stiffness, y) / yMy, largest, pivoted: true }
 }
 
 /** Interleaved storage of the forward sweep of up to four modes (see sweepFour). */
@@ -82,6 +104,8 @@ function sweepOne(pencil: BandPencil, shift: number, x: Float64Array, lw: Float6
   let z = 0
   let l = 0
   let moPrev = 0
+  let offPrev = 0
+  let unsafe = false
   for (let p = 0; p < n; p++) {
     const last = p === n - 1
     const ko = last ? 0 : kOff[p]
@@ -93,6 +117,8 @@ function sweepOne(pencil: BandPencil, shift: number, x: Float64Array, lw: Float6
     let pivot = rowSum - off
     if (!(Math.abs(pivot) >= floor)) pivot = -floor
     if (pivot < 0) negative++
+    if (!last && Math.abs(pivot) < TINY_INTERIOR_PIVOT * (Math.abs(off) + Math.abs(offPrev))) unsafe = true
+    offPrev = off
     // (M x)_p = r_p x_p + M_{p,p+1}(x_{p+1} − x_p) + M_{p−1,p}(x_{p−1} − x_p)
     const mx = mRow[p] * xp + mo * (xNext - xp) + moPrev * (xPrev - xp)
     xMx += xp * mx
@@ -104,6 +130,7 @@ function sweepOne(pencil: BandPencil, shift: number, x: Float64Array, lw: Float6
     if (!last) rowSum = kRow[p + 1] - shift * mRow[p + 1] - l * rowSum
     moPrev = mo
   }
+  if (unsafe) return pivotedStep(pencil, shift, Float64Array.from(x), x, negative)
   let yKy = 0
   let yMy = 0
   let largest = 0
@@ -147,6 +174,8 @@ function sweepFour(pencil: BandPencil, shifts: number[], xs: Float64Array[], lw:
   let l0 = 0, l1 = 0, l2 = 0, l3 = 0 // prettier-ignore
   let n0 = 0, n1 = 0, n2 = 0, n3 = 0 // prettier-ignore
   let q0 = 0, q1 = 0, q2 = 0, q3 = 0 // prettier-ignore
+  let o0 = 0, o1 = 0, o2 = 0, o3 = 0 // prettier-ignore
+  let u0 = false, u1 = false, u2 = false, u3 = false // prettier-ignore
   let moPrev = 0
   for (let p = 0; p < n; p++) {
     const last = p === n - 1
@@ -164,6 +193,8 @@ function sweepFour(pencil: BandPencil, shifts: number[], xs: Float64Array[], lw:
       let pivot = r0 - off
       if (!(Math.abs(pivot) >= f0)) pivot = -f0
       if (pivot < 0) n0++
+      if (!last && Math.abs(pivot) < TINY_INTERIOR_PIVOT * (Math.abs(off) + Math.abs(o0))) u0 = true
+      o0 = off
       const mx = mr * xp + mo * (x0[pNext] - xp) + moPrev * (x0[pPrev] - xp)
       q0 += xp * mx
       z0 = mx - l0 * z0
@@ -179,6 +210,8 @@ function sweepFour(pencil: BandPencil, shifts: number[], xs: Float64Array[], lw:
       let pivot = r1 - off
       if (!(Math.abs(pivot) >= f1)) pivot = -f1
       if (pivot < 0) n1++
+      if (!last && Math.abs(pivot) < TINY_INTERIOR_PIVOT * (Math.abs(off) + Math.abs(o1))) u1 = true
+      o1 = off
       const mx = mr * xp + mo * (x1[pNext] - xp) + moPrev * (x1[pPrev] - xp)
       q1 += xp * mx
       z1 = mx - l1 * z1
@@ -194,6 +227,8 @@ function sweepFour(pencil: BandPencil, shifts: number[], xs: Float64Array[], lw:
       let pivot = r2 - off
       if (!(Math.abs(pivot) >= f2)) pivot = -f2
       if (pivot < 0) n2++
+      if (!last && Math.abs(pivot) < TINY_INTERIOR_PIVOT * (Math.abs(off) + Math.abs(o2))) u2 = true
+      o2 = off
       const mx = mr * xp + mo * (x2[pNext] - xp) + moPrev * (x2[pPrev] - xp)
       q2 += xp * mx
       z2 = mx - l2 * z2
@@ -209,6 +244,8 @@ function sweepFour(pencil: BandPencil, shifts: number[], xs: Float64Array[], lw:
       let pivot = r3 - off
       if (!(Math.abs(pivot) >= f3)) pivot = -f3
       if (pivot < 0) n3++
+      if (!last && Math.abs(pivot) < TINY_INTERIOR_PIVOT * (Math.abs(off) + Math.abs(o3))) u3 = true
+      o3 = off
       const mx = mr * xp + mo * (x3[pNext] - xp) + moPrev * (x3[pPrev] - xp)
       q3 += xp * mx
       z3 = mx - l3 * z3
@@ -220,6 +257,9 @@ function sweepFour(pencil: BandPencil, shifts: number[], xs: Float64Array[], lw:
     }
     moPrev = mo
   }
+  // Lanes whose LDLᵀ had a vanishing interior pivot are redone with the pivoted solve below.
+  const unsafe = [u0, u1, u2, u3]
+  const saved = unsafe.map((u, b) => (u ? Float64Array.from(xs[b]) : null))
   let y0 = 0, y1 = 0, y2 = 0, y3 = 0 // prettier-ignore
   let k0 = 0, k1 = 0, k2 = 0, k3 = 0 // prettier-ignore
   let m0 = 0, m1 = 0, m2 = 0, m3 = 0 // prettier-ignore
@@ -259,12 +299,16 @@ function sweepFour(pencil: BandPencil, shifts: number[], xs: Float64Array[], lw:
     y3 = y
     x3[p] = y
   }
-  return [
+  const steps: InverseIterationStep[] = [
     { negativePivots: n0, xMx: q0, yMy: m0, rayleigh: k0 / m0, largest: g0 },
     { negativePivots: n1, xMx: q1, yMy: m1, rayleigh: k1 / m1, largest: g1 },
     { negativePivots: n2, xMx: q2, yMy: m2, rayleigh: k2 / m2, largest: g2 },
     { negativePivots: n3, xMx: q3, yMy: m3, rayleigh: k3 / m3, largest: g3 },
   ]
+  saved.forEach((x, b) => {
+    if (x) steps[b] = pivotedStep(pencil, shifts[b], x, xs[b], steps[b].negativePivots)
+  })
+  return steps
 }
 
 /** xᵀKx and xᵀMx of several vectors (difference form, as quadraticForm), four per sweep. */
@@ -334,6 +378,7 @@ export function inverseIterationStepInPlace(
   const { stiffness: k, mass: m } = pencil
   if (k.halfBandwidth === 1) return blockInverseIterationStep(pencil, [shift], [x], work)[0]
   factorShifted(pencil, shift, f)
+  if (hasTinyInteriorPivot(pencil, shift, f)) return pivotedStep(pencil, shift, Float64Array.from(x), x, f.negativePivots)
   multiplyBand(m, x, scratch)
   const xMx = dotProduct(x, scratch)
   solveFactored(f, scratch, x)

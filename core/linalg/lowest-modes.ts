@@ -19,7 +19,7 @@
  * constant shape; it is set exactly and the elastic modes are kept M-orthogonal to it.
  */
 import { seededRandom, type RandomSource } from '../random'
-import { coarseningMap, coarsenPencil, interpolateSmooth, type CoarseningMap } from './galerkin-coarsening'
+import { coarseningMap, coarsenPencil, interpolateSmooth } from './galerkin-coarsening'
 import {
   allocateBlockWork,
   blockEnergies,
@@ -70,6 +70,8 @@ export interface LowestModes {
   readonly vectors: Float64Array[]
   readonly rigidBodyModes: number
   readonly sturm: SturmCheck
+  /** Every mode's iteration met its tolerance and the values rise with the index. */
+  readonly converged: boolean
   readonly statistics: { levels: number; factorizations: number; repairedModes: number }
 }
 
@@ -92,6 +94,7 @@ interface LevelResult {
   readonly rigidBodyModes: number
   readonly rigidVector: Float64Array | null
   readonly sturm: SturmCheck
+  readonly converged: boolean
 }
 
 /** Work storage of one level. */
@@ -155,6 +158,7 @@ export function lowestModes(pencil: BandPencil, options: LowestModesOptions): Lo
     vectors,
     rigidBodyModes: result.rigidBodyModes,
     sturm: result.sturm,
+    converged: result.converged,
     statistics: { levels: context.levels, factorizations: context.factorizations, repairedModes: context.repairedModes },
   }
 }
@@ -239,7 +243,7 @@ function solveLevel(pencil: BandPencil, modes: number, context: Context, warm?: 
   }
   if (elastic <= 0) {
     const sturm = checkLowestEigenvalues(pencil, rigidBodyModes ? [0] : [])
-    return { values: [], vectors: [], nextEstimate: null, rigidBodyModes, rigidVector, sturm }
+    return { values: [], vectors: [], nextEstimate: null, rigidBodyModes, rigidVector, sturm, converged: true }
   }
   const level = createLevel(pencil, context, rigidVector)
   let found: RefinedMode[]
@@ -487,7 +491,7 @@ function verifyAndRepair(
   rigidBodyModes: number,
   elastic: number,
   nextEstimate: number | null,
-): { values: number[]; vectors: Float64Array[]; sturm: SturmCheck } {
+): { values: number[]; vectors: Float64Array[]; sturm: SturmCheck; converged: boolean } {
   const { pencil, context } = level
   const target = rigidBodyModes + elastic
   const m = modes.length
@@ -515,8 +519,12 @@ function verifyAndRepair(
     const first = Math.max(counts[i - 1] + 1, rigidBodyModes + 1)
     const last = Math.min(counts[i], target)
     const onlyOne = counts[i] - counts[i - 1] === 1
+    // The value must lie clearly inside its interval: two iterations that converged to the
+    // same eigenvalue put a midpoint on top of it, and then the interval proves nothing.
+    const margin = 1e-9 * Math.abs(values[i - 1])
+    const inside = values[i - 1] - bounds[i - 1] > margin && bounds[i] - values[i - 1] > margin
     for (let index = first; index <= last; index++) {
-      if (onlyOne && modes[i - 1].converged) accepted.set(index, modes[i - 1])
+      if (onlyOne && inside && modes[i - 1].converged) accepted.set(index, modes[i - 1])
       else redo.push({ index, start: index === first ? modes[i - 1].vector : null })
     }
   }
@@ -538,12 +546,13 @@ function verifyAndRepair(
   const indices = [...accepted.keys()].sort((a, b) => a - b)
   const finalValues = indices.map((i) => accepted.get(i)!.value)
   const finalVectors = indices.map((i) => accepted.get(i)!.vector)
+  const converged = indices.every((i, j) => accepted.get(i)!.converged && (j === 0 || finalValues[j] > finalValues[j - 1]))
   refineClusters(level, finalValues, finalVectors)
   const sturm =
     redo.length === 0 && m === elastic
       ? sturmCheckFromCounts(bounds, counts, rigidBodyModes)
       : checkLowestEigenvalues(pencil, rigidBodyModes ? [0, ...finalValues] : finalValues, top)
-  return { values: finalValues, vectors: finalVectors, sturm }
+  return { values: finalValues, vectors: finalVectors, sturm, converged }
 }
 
 /** Consecutive eigenvalues closer than this (relative) are refined together. */
@@ -563,7 +572,15 @@ function refineClusters(level: Level, values: number[], vectors: Float64Array[])
     if (last > first) {
       const members = vectors.slice(first, last + 1)
       const gram = (matrix: typeof pencil.stiffness) => members.map((u) => members.map((v) => bilinearForm(matrix, u, v)))
-      const ritz = smallGeneralizedEigen(gram(pencil.stiffness), gram(pencil.mass))
+      let ritz: ReturnType<typeof smallGeneralizedEigen>
+      try {
+        ritz = smallGeneralizedEigen(gram(pencil.stiffness), gram(pencil.mass))
+      } catch {
+        // Dependent vectors (the same mode found twice) cannot be separated by projection;
+        // the Sturm check that follows judges them.
+        first = last + 1
+        continue
+      }
       const combined = ritz.vectors.map((coefficients) => {
         const out = new Float64Array(level.order)
         coefficients.forEach((c, j) => {

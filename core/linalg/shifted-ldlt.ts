@@ -80,6 +80,24 @@ export function factorShifted(pencil: BandPencil, shift: number, f: ShiftedFacto
   return f
 }
 
+/**
+ * Whether some pivot before the last is tiny next to the couplings of its row: then back
+ * substitution with this factorisation is unsafe (see pivoted-band-solve.ts).
+ */
+export function hasTinyInteriorPivot(pencil: BandPencil, shift: number, f: ShiftedFactorization): boolean {
+  const n = f.order
+  const b = f.halfBandwidth
+  for (let p = 0; p + 1 < n; p++) {
+    let couplings = 0
+    for (let d = 1; d <= b; d++) {
+      if (p + d < n) couplings += Math.abs(pencil.stiffness.offDiagonals[d - 1][p] - shift * pencil.mass.offDiagonals[d - 1][p])
+      if (p - d >= 0) couplings += Math.abs(pencil.stiffness.offDiagonals[d - 1][p - d] - shift * pencil.mass.offDiagonals[d - 1][p - d])
+    }
+    if (Math.abs(f.pivots[p]) < 1e-8 * couplings) return true
+  }
+  return false
+}
+
 function factorTridiagonal(pencil: BandPencil, shift: number, f: ShiftedFactorization): number {
   const n = f.order
   const kOff = pencil.stiffness.offDiagonals[0]

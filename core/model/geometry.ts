@@ -57,6 +57,13 @@ export function materialOf(project: Pick<Project, 'materials'>, segment: Segment
   return m
 }
 
+/**
+ * Positions closer than this fraction of the bar's length are the same station (1 nm on a
+ * 1 m bar): an attachment typed 1e-14 m from a boundary sits on it, instead of creating a
+ * sliver element that would wreck the conditioning.
+ */
+export const SAME_POSITION = 1e-9
+
 /** x of every segment boundary, from 0 to the total length. */
 export function segmentBoundaries(segments: readonly Segment[]): number[] {
   const xs = [0]

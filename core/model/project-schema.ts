@@ -17,6 +17,7 @@ import {
   type Project,
 } from './project'
 import { resolveMaterial } from './geometry'
+import { countMeshElements } from '../fe/mesh'
 
 // The renderer runs under a Content-Security-Policy without 'unsafe-eval'.
 z.config({ jitless: true })
@@ -32,17 +33,29 @@ export type ProjectReadResult = { ok: true; project: Project } | { ok: false; is
 /** Project files larger than this are refused before parsing. */
 export const MAX_FILE_CHARACTERS = 20_000_000
 
-const positive = () => z.number().gt(0, 'must be > 0')
 const nonNegative = () => z.number().gte(0, 'must be ≥ 0')
+/**
+ * A positive quantity within physical bounds, so that areas, stiffnesses and masses derived
+ * from it stay finite and well away from underflow (e.g. no 1e308 m diameter).
+ */
+const physical = (min: number, max: number, unit: string) =>
+  z.number().superRefine((v, ctx) => {
+    // One message per field: the first rule it breaks.
+    const message = !(v > 0) ? 'must be > 0' : v < min ? `must be at least ${min} ${unit}`.trim() : v > max ? `must be at most ${max} ${unit}`.trim() : null
+    if (message) ctx.addIssue({ code: 'custom', message })
+  })
+const dimension = () => physical(1e-6, 100, 'm')
+const length = () => physical(1e-6, 1e4, 'm')
 const label = () => z.string().max(200, 'must be at most 200 characters')
-const valueOrRange = () => z.union([positive(), z.tuple([positive(), positive()])])
+const speedOrFrequency = () => physical(1e-6, 1e9, '(rpm or Hz)')
+const valueOrRange = () => z.union([speedOrFrequency(), z.tuple([speedOrFrequency(), speedOrFrequency()])])
 
 const sectionSchema = z.discriminatedUnion('shape', [
-  z.strictObject({ shape: z.literal('solid'), diameter: positive() }),
-  z.strictObject({ shape: z.literal('tube'), outerDiameter: positive(), innerDiameter: nonNegative() }),
-  z.strictObject({ shape: z.literal('rectangle'), width: positive(), height: positive() }),
-  z.strictObject({ shape: z.literal('area'), area: positive() }),
-  z.strictObject({ shape: z.literal('cone'), startDiameter: positive(), endDiameter: positive() }),
+  z.strictObject({ shape: z.literal('solid'), diameter: dimension() }),
+  z.strictObject({ shape: z.literal('tube'), outerDiameter: dimension(), innerDiameter: nonNegative().lte(100, 'must be at most 100 m') }),
+  z.strictObject({ shape: z.literal('rectangle'), width: dimension(), height: dimension() }),
+  z.strictObject({ shape: z.literal('area'), area: physical(1e-12, 1e4, 'm²') }),
+  z.strictObject({ shape: z.literal('cone'), startDiameter: dimension(), endDiameter: dimension() }),
 ])
 
 const endCondition = z.enum(['fixed', 'free'])
@@ -58,30 +71,30 @@ const projectSchema = z.strictObject({
       z.strictObject({
         id: z.string().min(1, 'must not be empty').max(100, 'must be at most 100 characters'),
         name: label().optional(),
-        youngsModulus: positive(),
-        density: positive(),
+        youngsModulus: physical(1e3, 1e13, 'Pa'),
+        density: physical(1e-3, 1e6, 'kg/m³'),
       }),
     )
     .max(1000, 'must have at most 1000 entries')
     .default([]),
   segments: z
-    .array(z.strictObject({ length: positive(), material: z.string().min(1, 'must not be empty'), section: sectionSchema }))
+    .array(z.strictObject({ length: length(), material: z.string().min(1, 'must not be empty'), section: sectionSchema }))
     .min(1, 'must have at least one segment')
     .max(LIMITS.maxSegments, `must have at most ${LIMITS.maxSegments} segments`),
   ends: z.strictObject({ start: endCondition, end: endCondition }),
   masses: z
-    .array(z.strictObject({ at: nonNegative(), mass: positive(), label: label().optional() }))
+    .array(z.strictObject({ at: nonNegative(), mass: physical(1e-12, 1e12, 'kg'), label: label().optional() }))
     .max(LIMITS.maxAttachments, `must have at most ${LIMITS.maxAttachments} entries`)
     .default([]),
   springs: z
-    .array(z.strictObject({ at: nonNegative(), stiffness: positive(), label: label().optional() }))
+    .array(z.strictObject({ at: nonNegative(), stiffness: physical(1e-6, 1e20, 'N/m'), label: label().optional() }))
     .max(LIMITS.maxAttachments, `must have at most ${LIMITS.maxAttachments} entries`)
     .default([]),
   analysis: z
     .strictObject({
       elementOrder: z.literal([1, 2]).optional(),
       elementsPerSegment: z.number().int('must be a whole number').gte(1, 'must be ≥ 1').optional(),
-      maxElementLength: positive().optional(),
+      maxElementLength: physical(1e-7, 1e4, 'm').optional(),
       mass: z.enum(['consistent', 'lumped', 'mixed']).optional(),
       modes: z.number().int('must be a whole number').gte(1, 'must be ≥ 1').lte(LIMITS.maxModes, `must be ≤ ${LIMITS.maxModes}`).optional(),
     })
@@ -92,7 +105,7 @@ const projectSchema = z.strictObject({
         z.strictObject({
           label: label().optional(),
           rpm: valueOrRange(),
-          orders: z.array(positive()).min(1, 'must list at least one order').max(LIMITS.maxOrdersPerExcitation, `must list at most ${LIMITS.maxOrdersPerExcitation} orders`),
+          orders: z.array(physical(1e-6, 1e5, '')).min(1, 'must list at least one order').max(LIMITS.maxOrdersPerExcitation, `must list at most ${LIMITS.maxOrdersPerExcitation} orders`),
         }),
         z.strictObject({ label: label().optional(), hz: valueOrRange() }),
       ]),
@@ -199,6 +212,11 @@ export function readProjectDocument(doc: unknown): ProjectReadResult {
     ...(data.tolerances ? { tolerances: data.tolerances } : {}),
   }
   const dofs = estimateDegreesOfFreedom(project)
+  const fixedEnds = (project.ends.start === 'fixed' ? 1 : 0) + (project.ends.end === 'fixed' ? 1 : 0)
+  if (dofs - fixedEnds < 1) {
+    const field = project.analysis.maxElementLength !== undefined ? 'analysis.maxElementLength' : 'analysis.elementsPerSegment'
+    return { ok: false, issues: [{ path: field, message: 'leaves no node free to move between the two fixed ends; use at least 2 elements' }] }
+  }
   if (dofs > LIMITS.maxDegreesOfFreedom) {
     const field = project.analysis.maxElementLength !== undefined ? 'analysis.maxElementLength' : 'analysis.elementsPerSegment'
     return {
@@ -279,15 +297,16 @@ function checkProjectRules(doc: Record<string, unknown>): ProjectIssue[] {
   return issues
 }
 
-/** Unknowns of the mesh the analysis settings ask for, without building it. */
+/** Nodes of the mesh the analysis settings ask for (unknowns plus fixed ends), without building it. */
 export function estimateDegreesOfFreedom(project: Project): number {
   const { elementOrder, elementsPerSegment, maxElementLength } = project.analysis
-  let elements = 0
-  for (const s of project.segments) {
-    elements += maxElementLength !== undefined ? Math.ceil(s.length / maxElementLength) : (elementsPerSegment ?? 1)
+  // Cheap guard first: a mesh far beyond the limit is refused without planning it.
+  if (maxElementLength !== undefined) {
+    let rough = 0
+    for (const s of project.segments) rough += s.length / maxElementLength
+    if (rough * elementOrder > 10 * LIMITS.maxDegreesOfFreedom) return Math.ceil(rough * elementOrder)
   }
-  elements += project.masses.length + project.springs.length
-  return elements * elementOrder + 1
+  return countMeshElements(project, { order: elementOrder, elementsPerSegment, maxElementLength }) * elementOrder + 1
 }
 
 /** Words for the problems zod finds, in Rodwave's own phrasing. */

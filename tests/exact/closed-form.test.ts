@@ -70,11 +70,12 @@ describe('exact piecewise solver (transfer matrices, Wittrick–Williams) agains
     tipSpringRoots(ratio, 6).forEach((lambda, i) => expectRelative(exact[i], (lambda * c) / L, 1e-12, `ω${i + 1}`))
   })
   test('a bar cut into identical stations and members changes nothing', () => {
-    // A mass of 1e-300 kg forces an extra station in the middle: same frequencies.
+    // A mass of 1e-12 kg (the smallest a file may hold) forces an extra station a third of the
+    // way along: the frequencies move by ~1e-12/(bar mass ≈ 0.65 kg), far below the tolerance.
     const plain = uniformBar({ length: L, diameter: d })
-    const cut = uniformBar({ length: L, diameter: d, extra: { masses: [{ at: L / 3, mass: 1e-300 }] } })
+    const cut = uniformBar({ length: L, diameter: d, extra: { masses: [{ at: L / 3, mass: 1e-12 }] } })
     const a = exactAngularFrequencies(stationChain(plain), 8)
     const b = exactAngularFrequencies(stationChain(cut), 8)
-    a.forEach((w, i) => expectRelative(b[i], w, 1e-12, `ω${i + 1}`))
+    a.forEach((w, i) => expectRelative(b[i], w, 1e-10, `ω${i + 1}`))
   })
 })

@@ -1,0 +1,145 @@
+/**
+ * Mesh convergence on log–log axes: |relative frequency error| of one mode against the
+ * mesh density (elements per segment, or unknowns) for every mass matrix and element
+ * order of a convergence study, measured against the exact reference. The legend gives
+ * each line's observed order of convergence (the negative slope on these axes). The error
+ * axis carries log10 |error| on a value axis (labelled in powers of ten) so each decade is ticked.
+ */
+import type { EChartsOption, LineSeriesOption } from 'echarts'
+import type { ConvergenceSeries, ConvergenceStudy } from '../analysis/convergence'
+import type { ElementOrder, MassMatrixKind } from '../model/project'
+import { axisStyle, baseOption, paletteOf, tooltipBase, type ChartBuildOptions } from './chart-common'
+import { escapeHtml, figure } from './chart-text'
+
+export type ConvergenceAxis = 'elements' | 'unknowns'
+
+export interface ConvergenceChartOptions extends ChartBuildOptions {
+  /** Mode number (1-based) to plot; default the first elastic mode with a non-zero reference. */
+  readonly mode?: number
+  /** Mesh density on the horizontal axis (default elements per segment). */
+  readonly xAxis?: ConvergenceAxis
+}
+
+/** Errors below this are round-off and would only bend the log axis. */
+const SMALLEST_SHOWN_ERROR = 1e-14
+
+const MASS_NAMES: Record<MassMatrixKind, string> = { consistent: 'consistent', lumped: 'lumped', mixed: 'mixed' }
+const ORDER_NAMES: Record<ElementOrder, string> = { 1: '2-node', 2: '3-node' }
+
+export function convergenceSeriesLabel(series: Pick<ConvergenceSeries, 'elementOrder' | 'mass'>): string {
+  return `${ORDER_NAMES[series.elementOrder]}, ${MASS_NAMES[series.mass]}`
+}
+
+/** "order 2.00", or "order —" where the errors reached round-off before two meshes could show it. */
+export function observedOrderText(series: ConvergenceSeries, modeIndex: number): string {
+  const p = series.observedOrder[modeIndex]
+  return p === null || p === undefined ? 'order —' : `order ${p.toFixed(2)}`
+}
+
+/** The mode a convergence chart shows by default: the first with a non-zero exact reference. */
+export function defaultConvergenceMode(study: ConvergenceStudy): number {
+  const index = study.referenceHz.findIndex((f) => f > 0)
+  return index < 0 ? 1 : index + 1
+}
+
+export function convergenceChartOption(study: ConvergenceStudy, options: ConvergenceChartOptions): EChartsOption {
+  const palette = paletteOf(options)
+  const axis = axisStyle(palette)
+  const modeNumber = options.mode ?? defaultConvergenceMode(study)
+  const modeIndex = modeNumber - 1
+  const byUnknowns = options.xAxis === 'unknowns'
+  const massColour: Record<MassMatrixKind, string> = { consistent: palette.series[0], lumped: palette.series[1], mixed: palette.series[2] }
+  const reference = study.referenceHz[modeIndex]
+  const names: string[] = []
+  const series: LineSeriesOption[] = study.series.map((s) => {
+    const name = `${convergenceSeriesLabel(s)} · ${observedOrderText(s, modeIndex)}`
+    names.push(name)
+    const data = s.points
+      .map((p) => ({ x: byUnknowns ? p.dofs : p.elementsPerSegment, error: p.errors[modeIndex] }))
+      .filter((p): p is { x: number; error: number } => p.error !== null && p.error !== undefined && Math.abs(p.error) >= SMALLEST_SHOWN_ERROR)
+      // The error axis is a value axis of log10 |error|, so every decade gets its tick.
+      .map((p) => [p.x, Math.log10(Math.abs(p.error))])
+    return {
+      type: 'line',
+      name,
+      data,
+      showSymbol: true,
+      symbol: s.elementOrder === 1 ? 'circle' : 'triangle',
+      symbolSize: 6,
+      lineStyle: { width: 1.8, color: massColour[s.mass], type: s.elementOrder === 1 ? 'solid' : 'dashed' },
+      itemStyle: { color: massColour[s.mass] },
+    }
+  })
+  const hasReference = study.referenceMethod !== null && reference !== undefined && reference > 0
+  const densities = study.series.flatMap((s) => s.points.map((p) => (byUnknowns ? p.dofs : p.elementsPerSegment)))
+  // Whole decades on the error axis, one tick each.
+  const shownExponents = series.flatMap((s) => (s.data as number[][]).map((p) => p[1]))
+  const lowDecade = shownExponents.length ? Math.floor(Math.min(...shownExponents)) : -12
+  const highDecade = shownExponents.length ? Math.ceil(Math.max(...shownExponents)) : 0
+  const decades = Math.max(1, highDecade - lowDecade)
+  const top = options.title ? 40 : 16
+  return {
+    ...baseOption(options),
+    grid: { left: 76, right: 24, top, bottom: 132 },
+    legend: {
+      bottom: 6,
+      left: 'center',
+      orient: 'horizontal',
+      itemGap: 14,
+      textStyle: { color: palette.text },
+      inactiveColor: palette.axisLine,
+      data: names,
+    },
+    xAxis: {
+      type: 'log',
+      logBase: 10,
+      name: byUnknowns ? 'Unknowns of the mesh' : 'Elements per segment',
+      ...(densities.length ? { min: Math.min(...densities), max: Math.max(...densities) } : {}),
+      nameLocation: 'middle',
+      nameGap: 28,
+      ...axis,
+      axisLabel: { ...axis.axisLabel, formatter: (v: number) => figure(v, 3) },
+      splitLine: { show: true, lineStyle: { color: palette.splitLine } },
+    },
+    yAxis: {
+      type: 'value',
+      name: `|f − f_exact| / f_exact, mode ${modeNumber}`,
+      nameLocation: 'middle',
+      nameGap: 60,
+      min: lowDecade,
+      max: lowDecade + decades,
+      interval: Math.max(1, Math.ceil(decades / 8)),
+      ...axis,
+      axisLabel: { ...axis.axisLabel, formatter: (v: number) => figure(10 ** v, 1) },
+    },
+    ...(hasReference
+      ? {}
+      : {
+          graphic: {
+            type: 'text',
+            left: 'center',
+            top: 'middle',
+            style: { text: 'No exact reference for this model: errors cannot be shown', fill: palette.mutedText, fontSize: 13 },
+          },
+        }),
+    ...(options.interactive
+      ? {
+          tooltip: {
+            ...tooltipBase(palette),
+            trigger: 'item',
+            formatter: (params: unknown) => {
+              const p = params as { seriesName?: string; value?: number[]; marker?: string }
+              if (!p.value) return ''
+              const density = byUnknowns ? `${figure(p.value[0], 6)} unknowns` : `${figure(p.value[0], 6)} elements per segment`
+              return `${p.marker ?? ''}${escapeHtml(p.seriesName ?? '')}<br>${density}<br>relative error ${figure(10 ** p.value[1], 3)}`
+            },
+          },
+          dataZoom: [
+            { type: 'inside', xAxisIndex: 0, filterMode: 'none' },
+            { type: 'inside', yAxisIndex: 0, filterMode: 'none' },
+          ],
+        }
+      : {}),
+    series,
+  }
+}

@@ -1,0 +1,331 @@
+/**
+ * Interference diagram: machine speed (rpm) across, frequency (Hz) up. Each order of a
+ * speed excitation is a line from the origin (f = order · rpm / 60); each natural
+ * frequency a horizontal line inside its margin band; operating speed ranges are shaded;
+ * fixed-frequency excitations are horizontal bands. Where an order line passes through
+ * a mode's band inside its speed range, or a fixed frequency lies in a mode's band, the
+ * pair conflicts and is marked.
+ *
+ * Which pairs conflict is decided by core/analysis/resonance.ts (the resonance table's
+ * own statuses); this file only places them. The band drawn around a natural frequency f
+ * is the set of excitation frequencies e that resonance.ts calls a conflict,
+ * |f − e| / e < margin, i.e. f/(1 + margin) < e < f/(1 − margin).
+ */
+import type { EChartsOption, LineSeriesOption, ScatterSeriesOption } from 'echarts'
+import type { ModalAnalysis } from '../analysis/modal-analysis'
+import { bandName, excitationBands, type ExcitationBand, type ResonancePair } from '../analysis/resonance'
+import type { Excitation } from '../model/project'
+import { hzToRpm, rpmToHz } from '../model/units'
+import { axisStyle, baseOption, niceCeil, paletteOf, tooltipBase, type ChartBuildOptions } from './chart-common'
+import { escapeHtml, figure, signedPercent } from './chart-text'
+
+export interface InterferenceChartInput {
+  readonly modes: readonly { readonly mode: number; readonly frequencyHz: number; readonly rigidBody: boolean }[]
+  readonly excitations: readonly Excitation[]
+  readonly margin: number
+  /** The resonance pairs of core/analysis/resonance.ts for these modes and excitations. */
+  readonly resonance: readonly ResonancePair[]
+}
+
+export function interferenceChartInput(analysis: ModalAnalysis): InterferenceChartInput {
+  return { modes: analysis.modes, excitations: analysis.project.excitations, margin: analysis.project.margin, resonance: analysis.resonance }
+}
+
+/** Excitation frequencies within the margin of a natural frequency: [f/(1 + margin), f/(1 − margin)]. */
+export function modeMarginBand(frequencyHz: number, margin: number): [number, number] {
+  return [frequencyHz / (1 + margin), frequencyHz / (1 - margin)]
+}
+
+export interface ConflictMark {
+  readonly pair: ResonancePair
+  /** Where the mark sits: the point of the excitation band nearest the natural frequency. */
+  readonly rpm: number | null
+  readonly hz: number
+  /** For an order line: the stretch of speed (rpm) inside both the speed range and the mode's band. */
+  readonly rpmSpan: readonly [number, number] | null
+}
+
+/** One mark per conflicting pair of the resonance check. */
+export function interferenceConflictMarks(input: InterferenceChartInput): ConflictMark[] {
+  const marks: ConflictMark[] = []
+  for (const pair of input.resonance) {
+    if (pair.status !== 'conflict') continue
+    const [lo, hi] = pair.band.hz
+    const nearestHz = Math.min(Math.max(pair.frequencyHz, lo), hi)
+    if (pair.band.order === null) {
+      marks.push({ pair, rpm: null, hz: nearestHz, rpmSpan: null })
+      continue
+    }
+    const order = pair.band.order
+    const [bandLo, bandHi] = modeMarginBand(pair.frequencyHz, input.margin)
+    const spanLo = Math.max(hzToRpm(lo) / order, hzToRpm(bandLo) / order)
+    const spanHi = Math.min(hzToRpm(hi) / order, hzToRpm(bandHi) / order)
+    marks.push({ pair, rpm: hzToRpm(nearestHz) / order, hz: nearestHz, rpmSpan: [Math.min(spanLo, spanHi), Math.max(spanLo, spanHi)] })
+  }
+  return marks
+}
+
+export interface InterferenceExtent {
+  readonly rpmMax: number
+  readonly hzMax: number
+  /** Elastic modes above hzMax, left off the diagram. */
+  readonly modesAbove: number
+}
+
+/** Axis ends: a quarter beyond the fastest speed and the highest excitation, and at least the first elastic mode's band. */
+export function interferenceExtent(input: InterferenceChartInput): InterferenceExtent {
+  const bands = excitationBands(input.excitations)
+  let rpmTop = 0
+  let hzTop = 0
+  for (const e of input.excitations) if ('rpm' in e) rpmTop = Math.max(rpmTop, Array.isArray(e.rpm) ? e.rpm[1] : e.rpm)
+  for (const b of bands) hzTop = Math.max(hzTop, b.hz[1])
+  const elastic = input.modes.filter((m) => !m.rigidBody)
+  if (elastic.length) hzTop = Math.max(hzTop, modeMarginBand(elastic[0].frequencyHz, input.margin)[1])
+  const hzMax = niceCeil(1.2 * (hzTop || 100))
+  const rpmMax = niceCeil(rpmTop > 0 ? 1.25 * rpmTop : hzToRpm(hzMax))
+  return { rpmMax, hzMax, modesAbove: elastic.filter((m) => m.frequencyHz > hzMax).length }
+}
+
+export interface InterferenceChartOptions extends ChartBuildOptions {
+  /** Override the axis ends (default interferenceExtent). */
+  readonly rpmMax?: number
+  readonly hzMax?: number
+}
+
+export function interferenceChartOption(input: InterferenceChartInput, options: InterferenceChartOptions): EChartsOption {
+  const palette = paletteOf(options)
+  const axis = axisStyle(palette)
+  const extent = interferenceExtent(input)
+  const rpmMax = options.rpmMax ?? extent.rpmMax
+  const hzMax = options.hzMax ?? extent.hzMax
+  const marginText = `±${figure(100 * input.margin, 3)} %`
+  const series: (LineSeriesOption | ScatterSeriesOption)[] = []
+
+  // Natural frequencies: a line and its margin band each.
+  const shownModes = input.modes.filter((m) => !m.rigidBody && m.frequencyHz <= hzMax)
+  series.push({
+    type: 'line',
+    name: 'Natural frequencies',
+    data: [],
+    markArea: {
+      silent: !options.interactive,
+      itemStyle: { color: palette.modeBand },
+      label: { show: false },
+      data: shownModes.map((m) => {
+        const [lo, hi] = modeMarginBand(m.frequencyHz, input.margin)
+        return [{ yAxis: lo, name: `Mode ${m.mode} margin band` }, { yAxis: hi }]
+      }),
+    },
+    markLine: {
+      silent: !options.interactive,
+      symbol: 'none',
+      animation: false,
+      lineStyle: { color: palette.modeLine, width: 1.6, type: 'solid' },
+      label: { show: true, position: 'insideEndTop', color: palette.modeLine, fontSize: 11, formatter: (p: { name?: string }) => p.name ?? '' },
+      data: shownModes.map((m) => ({ yAxis: m.frequencyHz, name: `Mode ${m.mode} · ${figure(m.frequencyHz, 4)} Hz` })),
+    },
+  })
+
+  // Operating speed ranges (shaded) and single speeds (a vertical line).
+  const speedAreas: [{ xAxis: number; name: string }, { xAxis: number }][] = []
+  const speedLines: { xAxis: number; name: string }[] = []
+  const frequencyAreas: [{ yAxis: number; name: string }, { yAxis: number }][] = []
+  const frequencyLines: { yAxis: number; name: string }[] = []
+  input.excitations.forEach((e, i) => {
+    const label = e.label?.trim() || `Excitation ${i + 1}`
+    if ('rpm' in e) {
+      if (Array.isArray(e.rpm)) speedAreas.push([{ xAxis: e.rpm[0], name: `${label}: ${figure(e.rpm[0], 5)}–${figure(e.rpm[1], 5)} rpm` }, { xAxis: e.rpm[1] }])
+      else speedLines.push({ xAxis: e.rpm, name: `${label}: ${figure(e.rpm, 5)} rpm` })
+    } else if (Array.isArray(e.hz)) {
+      frequencyAreas.push([{ yAxis: e.hz[0], name: `${label}: ${figure(e.hz[0], 4)}–${figure(e.hz[1], 4)} Hz` }, { yAxis: e.hz[1] }])
+    } else {
+      frequencyLines.push({ yAxis: e.hz, name: `${label}: ${figure(e.hz, 4)} Hz` })
+    }
+  })
+  series.push({
+    type: 'line',
+    name: 'Operating speeds',
+    data: [],
+    markArea: { silent: !options.interactive, itemStyle: { color: palette.speedRange }, label: { show: false }, data: speedAreas },
+    markLine: {
+      silent: !options.interactive,
+      symbol: 'none',
+      animation: false,
+      lineStyle: { color: palette.series[1], width: 1.2, type: 'dashed' },
+      label: { show: false },
+      data: speedLines,
+    },
+  })
+  series.push({
+    type: 'line',
+    name: 'Fixed frequencies',
+    data: [],
+    markArea: { silent: !options.interactive, itemStyle: { color: palette.frequencyBand }, label: { show: false }, data: frequencyAreas },
+    markLine: {
+      silent: !options.interactive,
+      symbol: 'none',
+      animation: false,
+      lineStyle: { color: palette.frequencyLine, width: 1.6, type: 'dashed' },
+      // Below the line: above it sit the conflict marks' labels.
+      label: { show: true, position: 'insideStartBottom', color: palette.frequencyLine, fontSize: 11, formatter: (p: { name?: string }) => p.name ?? '' },
+      data: frequencyLines,
+    },
+  })
+
+  // Order lines from the origin, one per band of each speed excitation.
+  const orderBands = excitationBands(input.excitations).filter((b) => b.order !== null)
+  orderBands.forEach((band, k) => {
+    const order = band.order!
+    const colour = palette.series[(k + 3) % palette.series.length]
+    const end = Math.min(rpmMax, hzToRpm(hzMax) / order)
+    series.push({
+      type: 'line',
+      name: bandName(band),
+      data: [
+        [0, 0],
+        [end, rpmToHz(end * order)],
+      ],
+      showSymbol: false,
+      silent: !options.interactive,
+      lineStyle: { color: colour, width: 1.4 },
+      itemStyle: { color: colour },
+      endLabel: { show: true, color: colour, fontSize: 11, formatter: () => `×${figure(order, 3)}` },
+    })
+  })
+
+  // Conflicts: the stretch of each order line inside a mode's band and speed range, and a mark per pair.
+  const marks = interferenceConflictMarks(input)
+  marks.forEach((mark) => {
+    if (!mark.rpmSpan || mark.pair.band.order === null) return
+    const order = mark.pair.band.order
+    const [a, b] = mark.rpmSpan
+    series.push({
+      type: 'line',
+      name: 'Conflict stretch',
+      data: [
+        [a, rpmToHz(a * order)],
+        [b, rpmToHz(b * order)],
+      ],
+      showSymbol: false,
+      silent: true,
+      lineStyle: { color: palette.conflict, width: 5, opacity: 0.75 },
+      z: 4,
+    })
+  })
+  const fixedMarkRpm = 0.03 * rpmMax
+  series.push({
+    type: 'scatter',
+    name: 'Conflicts',
+    symbol: 'diamond',
+    symbolSize: 13,
+    z: 5,
+    itemStyle: { color: palette.conflict, borderColor: palette.background, borderWidth: 1.5 },
+    label: {
+      show: true,
+      position: 'top',
+      distance: 6,
+      backgroundColor: palette.background,
+      padding: [1, 3],
+      borderRadius: 2,
+      color: palette.conflict,
+      fontSize: 11,
+      fontWeight: 600,
+      formatter: (p: { dataIndex: number }) => `mode ${marks[p.dataIndex].pair.mode}`,
+    },
+    data: marks.map((m) => [m.rpm ?? fixedMarkRpm, m.hz]),
+  })
+
+  const conflictText = (mark: ConflictMark) => {
+    const p = mark.pair
+    const where =
+      p.band.order === null
+        ? `${figure(p.band.hz[0], 4)}${p.band.hz[1] !== p.band.hz[0] ? `–${figure(p.band.hz[1], 4)}` : ''} Hz`
+        : `${figure(hzToRpm(p.band.hz[0]) / p.band.order, 5)}${p.band.hz[1] !== p.band.hz[0] ? `–${figure(hzToRpm(p.band.hz[1]) / p.band.order, 5)}` : ''} rpm × ${figure(p.band.order, 3)} = ${figure(p.band.hz[0], 4)}${p.band.hz[1] !== p.band.hz[0] ? `–${figure(p.band.hz[1], 4)}` : ''} Hz`
+    return [
+      `<b>Conflict: mode ${p.mode} and ${escapeHtml(bandName(p.band))}</b>`,
+      `Mode ${p.mode}: ${figure(p.frequencyHz, 4)} Hz`,
+      `Excitation: ${escapeHtml(where)}`,
+      `Separation ${signedPercent(p.separation)} (margin ${marginText})`,
+    ].join('<br>')
+  }
+
+  const subtitle = extent.modesAbove > 0 && options.hzMax === undefined ? `${extent.modesAbove} higher mode${extent.modesAbove > 1 ? 's' : ''} above ${figure(hzMax, 4)} Hz not shown` : ''
+  const top = options.title ? 44 : 20
+  return {
+    ...baseOption(options),
+    ...(subtitle
+      ? {
+          graphic: [{ type: 'text', right: 24, top: top - 16, style: { text: subtitle, fill: palette.mutedText, fontSize: 11 } }],
+        }
+      : {}),
+    grid: { left: 68, right: 56, top, bottom: options.interactive ? 84 : 52 },
+    xAxis: {
+      type: 'value',
+      min: 0,
+      max: rpmMax,
+      name: 'Speed (rpm)',
+      nameLocation: 'middle',
+      nameGap: 28,
+      ...axis,
+      axisLabel: { ...axis.axisLabel, formatter: (v: number) => figure(v, 5) },
+    },
+    yAxis: {
+      type: 'value',
+      min: 0,
+      max: hzMax,
+      name: 'Frequency (Hz)',
+      nameLocation: 'middle',
+      nameGap: 48,
+      ...axis,
+      axisLabel: { ...axis.axisLabel, formatter: (v: number) => figure(v, 5) },
+    },
+    ...(options.interactive
+      ? {
+          tooltip: {
+            ...tooltipBase(palette),
+            trigger: 'item',
+            formatter: (params: unknown) => {
+              const p = params as { seriesName?: string; componentType?: string; name?: string; dataIndex?: number; value?: unknown }
+              if (p.seriesName === 'Conflicts' && p.componentType === 'series' && p.dataIndex !== undefined) return conflictText(marks[p.dataIndex])
+              if (p.componentType === 'markArea' && p.seriesName === 'Natural frequencies') return `${escapeHtml(p.name ?? '')} (${marginText}): an excitation in this band conflicts`
+              if (p.componentType === 'markArea' || p.componentType === 'markLine') return escapeHtml(p.name ?? '')
+              return escapeHtml(p.seriesName ?? '')
+            },
+          },
+          dataZoom: [
+            { type: 'inside', xAxisIndex: 0, filterMode: 'none' },
+            { type: 'inside', yAxisIndex: 0, filterMode: 'none' },
+            {
+              type: 'slider',
+              xAxisIndex: 0,
+              filterMode: 'none',
+              height: 16,
+              bottom: 8,
+              showDetail: false,
+              backgroundColor: 'transparent',
+              borderColor: palette.splitLine,
+              fillerColor: palette.modeBand,
+              handleStyle: { color: palette.background, borderColor: palette.axisLine },
+              moveHandleStyle: { color: palette.axisLine },
+              dataBackground: { lineStyle: { color: palette.axisLine }, areaStyle: { color: palette.splitLine } },
+            },
+          ],
+        }
+      : {}),
+    series,
+  }
+}
+
+/** Plain-language line for a pair: "Mode 1 at 106 Hz is 6.4 % above Motor twice line frequency (100 Hz)". */
+export function pairSentence(pair: ResonancePair): string {
+  const band: ExcitationBand = pair.band
+  const [lo, hi] = band.hz
+  const bandText =
+    lo === hi ? `${figure(lo, 4)} Hz` : `${figure(lo, 4)}–${figure(hi, 4)} Hz`
+  const speed =
+    band.order === null ? '' : `, ${figure(hzToRpm(lo) / band.order, 5)}${lo === hi ? '' : `–${figure(hzToRpm(hi) / band.order, 5)}`} rpm`
+  const subject = `Mode ${pair.mode} at ${figure(pair.frequencyHz, 3)} Hz`
+  if (pair.separation === 0) return `${subject} lies inside ${bandName(band)} (${bandText}${speed})`
+  const direction = pair.separation > 0 ? 'above' : 'below'
+  return `${subject} is ${figure(Math.abs(100 * pair.separation), 2)} % ${direction} ${bandName(band)} (${bandText}${speed})`
+}
