@@ -146,7 +146,11 @@ export function analyseProject(project: Project, overrides: AnalysisOverrides = 
     },
     sturm: solution.sturm,
     converged: solution.converged,
-    resonance: resonancePairs(modes, project),
+    // The decision rests on the best frequency Rodwave has: the exact one where it exists.
+    resonance: resonancePairs(
+      modes.map((m) => ({ ...m, frequencyHz: m.referenceHz ?? m.frequencyHz })),
+      project,
+    ),
     timing: { assembleMs: t1 - t0, solveMs: t2 - t1, referenceMs: t3 - t2 },
   }
 }

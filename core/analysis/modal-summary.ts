@@ -24,7 +24,7 @@ export interface SolveDocument {
     cumulativeEffectiveMassFraction: number | null
   }[]
   reference: { method: 'exact' | null; formulation: string | null; frequenciesHz: number[] }
-  resonance: { mode: number; excitation: string; order: number | null; excitationHz: [number, number]; separation: number; status: string }[]
+  resonance: { mode: number; modeHz: number; excitation: string; order: number | null; excitationHz: [number, number]; separation: number; status: string }[]
   checks: { sturmCount: { passed: boolean; shifts: number[]; counts: number[]; expected: number[] } }
   /** Plain-language warnings about trust in the results (model-checks.ts); empty when none. */
   warnings: { code: string; message: string }[]
@@ -58,6 +58,7 @@ export function solveDocument(analysis: ModalAnalysis): SolveDocument {
     reference: { method: analysis.reference.method, formulation: analysis.reference.formulation, frequenciesHz: analysis.reference.frequenciesHz },
     resonance: analysis.resonance.map((p) => ({
       mode: p.mode,
+      modeHz: p.frequencyHz,
       excitation: p.band.label,
       order: p.band.order,
       excitationHz: [p.band.hz[0], p.band.hz[1]],

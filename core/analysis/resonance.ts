@@ -22,6 +22,7 @@ export type ResonanceStatus = 'clear' | 'conflict'
 
 export interface ResonancePair {
   readonly mode: number
+  /** The mode's frequency the separation was computed from (the exact one where known). */
   readonly frequencyHz: number
   readonly band: ExcitationBand
   readonly separation: number
