@@ -7,15 +7,18 @@ export function figure(value: number, significant = 4): string {
   return text.includes('.') && !text.includes('×') ? text.replace(/\.?0+$/, '') : text
 }
 
-/** A signed percentage with one decimal: +6.4 %, −12.0 %; 0 inside a band. */
-export function signedPercent(fraction: number, decimals = 1): string {
+/** A fraction as a signed percentage figure with fixed decimals: +6.4, −12.0; 0 inside a band. */
+export function signedPercentFigure(fraction: number, decimals = 1): string {
   const value = 100 * fraction
   const text = Math.abs(value).toFixed(decimals)
-  if (Number(text) === 0) return `0 %`
-  return `${value < 0 ? '\u2212' : '+'}${text} %`
+  if (Number(text) === 0) return '0'
+  return `${value < 0 ? '\u2212' : '+'}${text}`
 }
 
-/** Escapes text placed in tooltip HTML (labels are typed by the user). */
-export function escapeHtml(text: string): string {
-  return text.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!)
+/** The same with its unit: +6.4 %. */
+export function signedPercent(fraction: number, decimals = 1): string {
+  return `${signedPercentFigure(fraction, decimals)} %`
 }
+
+/** Escapes text placed in tooltip HTML (labels are typed by the user): the report's own escaping. */
+export { escapeHtml } from '../report/html'

@@ -6,7 +6,7 @@
  */
 export * from './chart-common'
 export * from './chart-palette'
-export { figure, signedPercent, escapeHtml } from './chart-text'
+export { figure, signedPercent, signedPercentFigure, escapeHtml } from './chart-text'
 export * from './mode-shape-chart'
 export * from './convergence-chart'
 export * from './interference-chart'

@@ -20,7 +20,8 @@ import { axisStyle, baseOption, niceCeil, paletteOf, tooltipBase, type ChartBuil
 import { escapeHtml, figure, signedPercent } from './chart-text'
 
 export interface InterferenceChartInput {
-  readonly modes: readonly { readonly mode: number; readonly frequencyHz: number; readonly rigidBody: boolean }[]
+  /** With `referenceHz`, the exact frequency is drawn, as the resonance check uses it where known. */
+  readonly modes: readonly { readonly mode: number; readonly frequencyHz: number; readonly rigidBody: boolean; readonly referenceHz?: number | null }[]
   readonly excitations: readonly Excitation[]
   readonly margin: number
   /** The resonance pairs of core/analysis/resonance.ts for these modes and excitations. */
@@ -29,6 +30,11 @@ export interface InterferenceChartInput {
 
 export function interferenceChartInput(analysis: ModalAnalysis): InterferenceChartInput {
   return { modes: analysis.modes, excitations: analysis.project.excitations, margin: analysis.project.margin, resonance: analysis.resonance }
+}
+
+/** The frequency of a mode the resonance check rests on: the exact one where known (modal-analysis.ts). */
+export function checkedFrequency(mode: InterferenceChartInput['modes'][number]): number {
+  return mode.referenceHz ?? mode.frequencyHz
 }
 
 /** Excitation frequencies within the margin of a natural frequency: [f/(1 + margin), f/(1 − margin)]. */
@@ -80,10 +86,10 @@ export function interferenceExtent(input: InterferenceChartInput): InterferenceE
   for (const e of input.excitations) if ('rpm' in e) rpmTop = Math.max(rpmTop, Array.isArray(e.rpm) ? e.rpm[1] : e.rpm)
   for (const b of bands) hzTop = Math.max(hzTop, b.hz[1])
   const elastic = input.modes.filter((m) => !m.rigidBody)
-  if (elastic.length) hzTop = Math.max(hzTop, modeMarginBand(elastic[0].frequencyHz, input.margin)[1])
+  if (elastic.length) hzTop = Math.max(hzTop, modeMarginBand(checkedFrequency(elastic[0]), input.margin)[1])
   const hzMax = niceCeil(1.2 * (hzTop || 100))
   const rpmMax = niceCeil(rpmTop > 0 ? 1.25 * rpmTop : hzToRpm(hzMax))
-  return { rpmMax, hzMax, modesAbove: elastic.filter((m) => m.frequencyHz > hzMax).length }
+  return { rpmMax, hzMax, modesAbove: elastic.filter((m) => checkedFrequency(m) > hzMax).length }
 }
 
 export interface InterferenceChartOptions extends ChartBuildOptions {
@@ -102,7 +108,7 @@ export function interferenceChartOption(input: InterferenceChartInput, options: 
   const series: (LineSeriesOption | ScatterSeriesOption)[] = []
 
   // Natural frequencies: a line and its margin band each.
-  const shownModes = input.modes.filter((m) => !m.rigidBody && m.frequencyHz <= hzMax)
+  const shownModes = input.modes.filter((m) => !m.rigidBody && checkedFrequency(m) <= hzMax)
   series.push({
     type: 'line',
     name: 'Natural frequencies',
@@ -112,7 +118,7 @@ export function interferenceChartOption(input: InterferenceChartInput, options: 
       itemStyle: { color: palette.modeBand },
       label: { show: false },
       data: shownModes.map((m) => {
-        const [lo, hi] = modeMarginBand(m.frequencyHz, input.margin)
+        const [lo, hi] = modeMarginBand(checkedFrequency(m), input.margin)
         return [{ yAxis: lo, name: `Mode ${m.mode} margin band` }, { yAxis: hi }]
       }),
     },
@@ -122,7 +128,7 @@ export function interferenceChartOption(input: InterferenceChartInput, options: 
       animation: false,
       lineStyle: { color: palette.modeLine, width: 1.6, type: 'solid' },
       label: { show: true, position: 'insideEndTop', color: palette.modeLine, fontSize: 11, formatter: (p: { name?: string }) => p.name ?? '' },
-      data: shownModes.map((m) => ({ yAxis: m.frequencyHz, name: `Mode ${m.mode} · ${figure(m.frequencyHz, 4)} Hz` })),
+      data: shownModes.map((m) => ({ yAxis: checkedFrequency(m), name: `Mode ${m.mode} · ${figure(checkedFrequency(m), 4)} Hz` })),
     },
   })
 

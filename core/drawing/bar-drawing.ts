@@ -22,6 +22,7 @@
 import { sectionOuterSize, segmentBoundaries, totalLength } from '../model/geometry'
 import type { Project, Section } from '../model/project'
 import { displayUnit, toDisplay, type QuantityKind, type UnitSystem } from '../model/units'
+import { escapeHtml as escapeXml } from '../report/html'
 import { figure } from '../charts/chart-text'
 
 export interface DrawingTheme {
@@ -203,7 +204,7 @@ export function barDrawing(project: Pick<Project, 'segments' | 'ends' | 'masses'
   const rowCount = (rows: number[], minimum: number) => Math.max(minimum, 1 + Math.max(-1, ...rows))
 
   // Labels are staggered into rows where they would overlap, so the height left for the bar
-  // depends on the axial scale; a stubby part is fitted by its diameter instead (both scales
+  // depends on the axial scale; a short, thick part is fitted by its diameter instead (both scales
   // shrink together and the drawing is centred). Two passes settle both.
   const margin = Math.max(28, 0.05 * width)
   let axialScale = (width - 2 * margin) / length
@@ -466,10 +467,6 @@ function styleAttributes(style: ShapeStyle, isText: boolean): string {
   if (style.fontSize !== undefined) out += ` font-size="${style.fontSize}"`
   if (style.fontWeight !== undefined) out += ` font-weight="${style.fontWeight}"`
   return out
-}
-
-export function escapeXml(text: string): string {
-  return text.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!)
 }
 
 const round2 = (v: number) => Math.round(v * 100) / 100

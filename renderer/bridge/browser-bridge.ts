@@ -1,0 +1,158 @@
+/**
+ * The bridge for a plain browser (the web build and the browser tests): the same contract
+ * as the desktop app's preload, with an upload for Open, a download for Save and Export,
+ * the print dialog for PDF, recovery and recent files in localStorage, and the demo
+ * project bundled into the page.
+ */
+import type { DocumentState, ExportRequest, MenuCommand, OpenResult, RodwaveBridge, SaveRequest, SaveResult } from './contract'
+import demoDocument from '../../examples/condensate-pump-hanger.rodwave.json'
+
+export const DEMO_NAME = 'condensate-pump-hanger.rodwave.json'
+const RECOVERY_KEY = 'rodwave.recovery'
+const RECENT_KEY = 'rodwave.recent'
+const RECENT_LIMIT = 8
+/** Recent files keep their text in localStorage; larger ones are listed only while the page lives. */
+const RECENT_TEXT_LIMIT = 1_000_000
+
+const MIME: Record<ExportRequest['kind'] | 'project', string> = {
+  project: 'application/json',
+  csv: 'text/csv',
+  html: 'text/html',
+  pdf: 'text/html',
+}
+
+interface RecentEntry {
+  readonly name: string
+  readonly text: string
+}
+
+export interface BrowserBridgeOptions {
+  /** Storage for recovery and recent files (default window.localStorage). */
+  readonly storage?: Storage
+}
+
+export function createBrowserBridge(options: BrowserBridgeOptions = {}): RodwaveBridge {
+  const storage = options.storage ?? window.localStorage
+  const menuListeners = new Set<(command: MenuCommand) => void>()
+
+  const readRecent = (): RecentEntry[] => {
+    try {
+      const parsed: unknown = JSON.parse(storage.getItem(RECENT_KEY) ?? '[]')
+      return Array.isArray(parsed) ? parsed.filter((e): e is RecentEntry => typeof e?.name === 'string' && typeof e?.text === 'string') : []
+    } catch {
+      return []
+    }
+  }
+  const remember = (name: string, text: string) => {
+    if (text.length > RECENT_TEXT_LIMIT) return
+    const entries = [{ name, text }, ...readRecent().filter((e) => e.name !== name)].slice(0, RECENT_LIMIT)
+    try {
+      storage.setItem(RECENT_KEY, JSON.stringify(entries))
+    } catch {
+      // Storage full: the list simply does not grow.
+    }
+  }
+
+  return {
+    platform: 'browser',
+    async openProject(): Promise<OpenResult> {
+      const file = await pickFile('.json,.rodwave.json,application/json')
+      if (!file) return { kind: 'cancelled' }
+      try {
+        const text = await file.text()
+        remember(file.name, text)
+        return { kind: 'opened', path: file.name, name: file.name, text }
+      } catch (error) {
+        return { kind: 'error', message: `Could not read ${file.name}: ${error instanceof Error ? error.message : String(error)}` }
+      }
+    },
+    async openRecent(path: string): Promise<OpenResult> {
+      const entry = readRecent().find((e) => e.name === path)
+      if (!entry) return { kind: 'error', message: `${path} is no longer in this browser's recent files` }
+      return { kind: 'opened', path: entry.name, name: entry.name, text: entry.text }
+    },
+    async saveProject(request: SaveRequest): Promise<SaveResult> {
+      const name = ensureExtension(request.path ?? request.suggestedName, '.rodwave.json')
+      download(name, request.text, MIME.project)
+      remember(name, request.text)
+      return { kind: 'saved', path: name, name }
+    },
+    async exportFile(request: ExportRequest): Promise<SaveResult> {
+      if (request.kind === 'pdf') return printReport(request)
+      const name = ensureExtension(request.suggestedName, `.${request.kind}`)
+      download(name, request.content, MIME[request.kind])
+      return { kind: 'saved', path: name, name }
+    },
+    async recentFiles(): Promise<string[]> {
+      return readRecent().map((e) => e.name)
+    },
+    async demoProject() {
+      return { name: DEMO_NAME, text: `${JSON.stringify(demoDocument, null, 2)}\n` }
+    },
+    async setDocumentState(state: DocumentState): Promise<void> {
+      document.title = `${state.dirty ? '• ' : ''}${state.title || 'Untitled project'} — Rodwave`
+    },
+    async writeRecovery(text: string): Promise<void> {
+      storage.setItem(RECOVERY_KEY, text)
+    },
+    async readRecovery(): Promise<string | null> {
+      return storage.getItem(RECOVERY_KEY)
+    },
+    async clearRecovery(): Promise<void> {
+      storage.removeItem(RECOVERY_KEY)
+    },
+    onMenuCommand(listener: (command: MenuCommand) => void): () => void {
+      // A browser has no application menu: the page's own buttons and keys are the menu.
+      menuListeners.add(listener)
+      return () => menuListeners.delete(listener)
+    },
+  }
+}
+
+function ensureExtension(name: string, extension: string): string {
+  return name.toLowerCase().endsWith(extension) ? name : `${name.replace(/\.(rodwave\.)?json$/i, '')}${extension}`
+}
+
+/** Asks for one file with a transient file input; resolves null when the dialog is dismissed. */
+function pickFile(accept: string): Promise<File | null> {
+  return new Promise((resolve) => {
+    const input = document.createElement('input')
+    input.type = 'file'
+    input.accept = accept
+    input.style.display = 'none'
+    const finish = (file: File | null) => {
+      input.remove()
+      resolve(file)
+    }
+    input.addEventListener('change', () => finish(input.files?.[0] ?? null), { once: true })
+    input.addEventListener('cancel', () => finish(null), { once: true })
+    document.body.append(input)
+    input.click()
+  })
+}
+
+function download(name: string, content: string, type: string): void {
+  const url = URL.createObjectURL(new Blob([content], { type: `${type};charset=utf-8` }))
+  const link = document.createElement('a')
+  link.href = url
+  link.download = name
+  link.style.display = 'none'
+  document.body.append(link)
+  link.click()
+  link.remove()
+  // Give the browser time to start the download before the URL goes.
+  setTimeout(() => URL.revokeObjectURL(url), 60_000)
+}
+
+/** PDF in a browser: the report opens in a new tab and the browser's print dialog saves it. */
+function printReport(request: ExportRequest): SaveResult {
+  const url = URL.createObjectURL(new Blob([request.content], { type: 'text/html;charset=utf-8' }))
+  const view = window.open(url, '_blank')
+  if (!view) {
+    URL.revokeObjectURL(url)
+    return { kind: 'error', message: 'The browser blocked the report window; allow pop-ups for this page, or export the report as HTML and print it.' }
+  }
+  view.addEventListener('load', () => view.print(), { once: true })
+  setTimeout(() => URL.revokeObjectURL(url), 600_000)
+  return { kind: 'saved', path: request.suggestedName, name: request.suggestedName }
+}

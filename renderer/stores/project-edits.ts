@@ -1,0 +1,286 @@
+/**
+ * The editor's changes to a project, as plain functions that change a draft in place.
+ * A draft may hold values the validator will refuse (NaN for text that is not a number,
+ * a missing field for an emptied one): the editor never blocks typing, it names the
+ * problem next to the field instead.
+ */
+import { libraryMaterial } from '../../core/model/materials'
+import { meanSectionArea, sectionArea, sectionOuterSize, segmentBoundaries, totalLength } from '../../core/model/geometry'
+import type { EndCondition, Excitation, Material, Project, Section, SectionShape } from '../../core/model/project'
+
+/** A value typed in a field: a number, NaN (not a number) or undefined (empty). */
+export type Typed = number | undefined
+
+/** Sets or (for undefined) removes a field, so an emptied field reads as "is required". */
+export function assign<T extends object>(target: T, key: keyof T, value: Typed | string): void {
+  if (value === undefined) delete target[key]
+  else (target as Record<keyof T, unknown>)[key] = value
+}
+
+const isPositive = (v: unknown): v is number => typeof v === 'number' && Number.isFinite(v) && v > 0
+
+/**
+ * A segment's new length. Attachments move as the project file's rule says: one beyond
+ * the segment moves with the bar's end, one inside it keeps its fraction of the segment.
+ * Attachments stay where they are while either length is not a valid number.
+ */
+export function setSegmentLength(project: Project, index: number, length: Typed): void {
+  const segment = project.segments[index]
+  const before = segment.length
+  assign(segment, 'length', length)
+  if (!isPositive(before) || !isPositive(length) || !project.segments.every((s, i) => i === index || isPositive(s.length))) return
+  const start = segmentBoundaries(project.segments.map((s, i) => (i === index ? { ...s, length: before } : s)))[index]
+  const end = start + before
+  const move = (at: number) => (at >= end ? at + (length - before) : at > start ? start + ((at - start) / before) * length : at)
+  for (const list of [project.masses, project.springs]) {
+    for (const a of list) if (typeof a.at === 'number' && Number.isFinite(a.at)) a.at = move(a.at)
+  }
+}
+
+/** A copy of a segment after `index` (or a first one), the bar growing by its length. */
+export function insertSegment(project: Project, after: number): void {
+  const template = project.segments[after] ?? project.segments[project.segments.length - 1]
+  const segment = template
+    ? structuredClone({ length: isPositive(template.length) ? template.length : 0.5, material: template.material, section: template.section })
+    : { length: 0.5, material: 'carbon-steel', section: { shape: 'solid', diameter: 0.025 } as Section }
+  const bounds = segmentBoundaries(project.segments)
+  const at = bounds[Math.min(after + 1, project.segments.length)] ?? 0
+  project.segments.splice(after + 1, 0, segment)
+  if (after + 1 < project.segments.length - 1) shiftAttachments(project, at, segment.length)
+}
+
+/** Removes a segment; attachments beyond it move back with the bar's end, ones on it go to its start. */
+export function removeSegment(project: Project, index: number): void {
+  if (project.segments.length <= 1) return
+  const bounds = segmentBoundaries(project.segments)
+  const [start, end] = [bounds[index], bounds[index + 1]]
+  const removed = project.segments[index].length
+  project.segments.splice(index, 1)
+  if (!Number.isFinite(start) || !Number.isFinite(end)) return
+  for (const list of [project.masses, project.springs]) {
+    for (const a of list) {
+      if (typeof a.at !== 'number') continue
+      if (a.at >= end) a.at -= removed
+      else if (a.at > start) a.at = start
+    }
+  }
+}
+
+function shiftAttachments(project: Project, from: number, by: number): void {
+  for (const list of [project.masses, project.springs]) for (const a of list) if (typeof a.at === 'number' && a.at >= from) a.at += by
+}
+
+/** Swaps a segment with its neighbour; attachments keep their distance from the start. */
+export function moveSegment(project: Project, index: number, direction: -1 | 1): void {
+  const other = index + direction
+  if (other < 0 || other >= project.segments.length) return
+  const segments = project.segments
+  ;[segments[index], segments[other]] = [segments[other], segments[index]]
+}
+
+/** A new section shape that keeps the old one's size where it can. */
+export function setSectionShape(project: Project, index: number, shape: SectionShape): void {
+  const segment = project.segments[index]
+  const old = segment.section
+  if (old.shape === shape) return
+  const outer = finiteOr(safe(() => sectionOuterSize(old)), 0.025)
+  const area = finiteOr(safe(() => (old.shape === 'cone' ? meanSectionArea(old) : sectionArea(old))), (Math.PI / 4) * outer * outer)
+  const sections: Record<SectionShape, Section> = {
+    solid: { shape: 'solid', diameter: outer },
+    tube: { shape: 'tube', outerDiameter: outer, innerDiameter: round(outer / 2) },
+    rectangle: { shape: 'rectangle', width: outer, height: outer },
+    area: { shape: 'area', area: round(area) },
+    cone: { shape: 'cone', startDiameter: outer, endDiameter: round(outer * 0.75) },
+  }
+  segment.section = sections[shape]
+}
+
+function safe(f: () => number): number {
+  try {
+    return f()
+  } catch {
+    return NaN
+  }
+}
+
+function finiteOr(v: number, fallback: number): number {
+  return Number.isFinite(v) && v > 0 ? v : fallback
+}
+
+/** Six significant digits: a derived size the user will likely retype anyway. */
+function round(v: number): number {
+  return Number(v.toPrecision(6))
+}
+
+export function setSectionDimension(project: Project, index: number, key: string, value: Typed): void {
+  assign(project.segments[index].section as unknown as Record<string, unknown>, key, value)
+}
+
+export function setEnd(project: Project, end: 'start' | 'end', condition: EndCondition): void {
+  project.ends[end] = condition
+}
+
+/** A new project material, starting from carbon steel's handbook values. */
+export function addMaterial(project: Project): string {
+  const base = libraryMaterial('carbon-steel')!
+  let n = project.materials.length + 1
+  while (project.materials.some((m) => m.id === `material-${n}`)) n++
+  const id = `material-${n}`
+  project.materials.push({ id, name: `Material ${n}`, youngsModulus: base.youngsModulus, density: base.density })
+  return id
+}
+
+/** Renames a project material; the segments that used the old id follow it. */
+export function renameMaterial(project: Project, index: number, id: string): void {
+  const material = project.materials[index]
+  const old = material.id
+  material.id = id
+  if (old === id) return
+  const stillDefined = project.materials.some((m) => m.id === old)
+  if (stillDefined) return
+  for (const s of project.segments) if (s.material === old) s.material = id
+}
+
+export function updateMaterial(project: Project, index: number, key: 'name' | 'youngsModulus' | 'density', value: Typed | string): void {
+  assign(project.materials[index] as Material, key, value)
+}
+
+/** Segments (1-based numbers) that use a material. */
+export function materialUsers(project: Project, id: string): number[] {
+  return project.segments.flatMap((s, i) => (s.material === id ? [i + 1] : []))
+}
+
+export function removeMaterial(project: Project, index: number): void {
+  if (materialUsers(project, project.materials[index].id).length === 0) project.materials.splice(index, 1)
+}
+
+export type AttachmentList = 'masses' | 'springs'
+
+/** A new attachment at the free end (or the bar's end), a plausible size to edit. */
+export function addAttachment(project: Project, list: AttachmentList): void {
+  const length = safe(() => totalLength(project.segments))
+  const at = project.ends.end === 'free' || !Number.isFinite(length) ? (Number.isFinite(length) ? length : 0) : length / 2
+  if (list === 'masses') project.masses.push({ at, mass: 1, label: `Mass ${project.masses.length + 1}` })
+  else project.springs.push({ at, stiffness: 1e7, label: `Spring ${project.springs.length + 1}` })
+}
+
+export function updateAttachment(project: Project, list: AttachmentList, index: number, key: 'at' | 'mass' | 'stiffness' | 'label', value: Typed | string): void {
+  const item = project[list][index] as unknown as Record<string, unknown>
+  if (key === 'label' && value === '') delete item.label
+  else assign(item, key, value)
+}
+
+export function removeAttachment(project: Project, list: AttachmentList, index: number): void {
+  project[list].splice(index, 1)
+}
+
+export type MeshMode = 'elementsPerSegment' | 'maxElementLength'
+
+export function setMeshMode(project: Project, mode: MeshMode): void {
+  const analysis = project.analysis
+  if (mode === 'maxElementLength' && analysis.maxElementLength === undefined) {
+    const length = safe(() => totalLength(project.segments))
+    const elements = (analysis.elementsPerSegment ?? 40) * project.segments.length
+    analysis.maxElementLength = Number.isFinite(length) && length > 0 ? round(length / elements) : 0.01
+    delete analysis.elementsPerSegment
+  } else if (mode === 'elementsPerSegment' && analysis.elementsPerSegment === undefined) {
+    analysis.elementsPerSegment = 40
+    delete analysis.maxElementLength
+  }
+}
+
+/** A common speed for presets when the project has none: a four-pole motor on a 50 Hz supply (common practice, no source). */
+export const DEFAULT_RUNNING_SPEED_RPM = 1480
+
+export type ExcitationPreset = 'running-1x' | 'running-2x' | 'twice-line-50' | 'twice-line-60' | 'blade-pass' | 'gear-mesh'
+
+export const EXCITATION_PRESETS: readonly { id: ExcitationPreset; title: string }[] = [
+  { id: 'running-1x', title: '1× running speed' },
+  { id: 'running-2x', title: '2× running speed' },
+  { id: 'twice-line-50', title: 'Twice line frequency, 100 Hz' },
+  { id: 'twice-line-60', title: 'Twice line frequency, 120 Hz' },
+  { id: 'blade-pass', title: 'Blade or vane pass' },
+  { id: 'gear-mesh', title: 'Gear mesh' },
+]
+
+/** The project's running speed, for presets: its first speed excitation, else DEFAULT_RUNNING_SPEED_RPM. */
+export function runningSpeed(project: Project): number | [number, number] {
+  for (const e of project.excitations) if ('rpm' in e) return structuredClone(e.rpm)
+  return DEFAULT_RUNNING_SPEED_RPM
+}
+
+export function presetExcitation(project: Project, preset: ExcitationPreset): Excitation {
+  const rpm = runningSpeed(project)
+  switch (preset) {
+    case 'running-1x':
+      return { label: 'Running speed 1×', rpm, orders: [1] }
+    case 'running-2x':
+      return { label: 'Running speed 2×', rpm, orders: [2] }
+    case 'twice-line-50':
+      return { label: 'Twice line frequency (50 Hz supply)', hz: 100 }
+    case 'twice-line-60':
+      return { label: 'Twice line frequency (60 Hz supply)', hz: 120 }
+    case 'blade-pass':
+      return { label: 'Blade or vane pass', rpm, orders: [6] }
+    case 'gear-mesh':
+      return { label: 'Gear mesh', rpm, orders: [20] }
+  }
+}
+
+export function addExcitation(project: Project, excitation: Excitation): void {
+  project.excitations.push(excitation)
+}
+
+export function removeExcitation(project: Project, index: number): void {
+  project.excitations.splice(index, 1)
+}
+
+/** Switches an excitation between a speed with orders and a fixed frequency, keeping its frequency. */
+export function setExcitationKind(project: Project, index: number, kind: 'speed' | 'frequency'): void {
+  const e = project.excitations[index]
+  if (kind === 'speed' && 'hz' in e) {
+    const toRpm = (hz: number) => round(hz * 60)
+    const rpm = Array.isArray(e.hz) ? ([toRpm(e.hz[0]), toRpm(e.hz[1])] as [number, number]) : toRpm(e.hz)
+    project.excitations[index] = { ...(e.label !== undefined ? { label: e.label } : {}), rpm, orders: [1] }
+  } else if (kind === 'frequency' && 'rpm' in e) {
+    const order = typeof e.orders[0] === 'number' && Number.isFinite(e.orders[0]) ? e.orders[0] : 1
+    const toHz = (rpm: number) => round((rpm * order) / 60)
+    const hz = Array.isArray(e.rpm) ? ([toHz(e.rpm[0]), toHz(e.rpm[1])] as [number, number]) : toHz(e.rpm)
+    project.excitations[index] = { ...(e.label !== undefined ? { label: e.label } : {}), hz }
+  }
+}
+
+/**
+ * The value (or the range's low end, `which` = 0) and the range's high end (`which` = 1) of an
+ * excitation's speed or frequency. An empty high end makes it a single value.
+ */
+export function setExcitationValue(project: Project, index: number, which: 0 | 1, value: Typed): void {
+  const e = project.excitations[index] as unknown as Record<string, unknown>
+  const key = 'rpm' in e ? 'rpm' : 'hz'
+  const current = e[key]
+  const low = Array.isArray(current) ? current[0] : current
+  const high = Array.isArray(current) ? current[1] : undefined
+  const nextLow = which === 0 ? value : low
+  const nextHigh = which === 1 ? value : high
+  if (nextHigh === undefined) assign(e, key, nextLow as Typed)
+  else e[key] = [nextLow ?? NaN, nextHigh]
+}
+
+export function setExcitationOrders(project: Project, index: number, orders: number[]): void {
+  const e = project.excitations[index]
+  if ('rpm' in e) e.orders = orders
+}
+
+export function setExcitationLabel(project: Project, index: number, label: string): void {
+  const e = project.excitations[index]
+  if (label === '') delete e.label
+  else e.label = label
+}
+
+/** "1, 2, 7" → [1, 2, 7]; an entry that is not a number stays as NaN so its field is named. */
+export function parseOrders(text: string): number[] {
+  return text
+    .split(/[,;\s]+/)
+    .filter((t) => t !== '')
+    .map((t) => (/^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(t) ? Number(t) : NaN))
+}

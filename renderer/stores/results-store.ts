@@ -1,0 +1,122 @@
+/**
+ * The modes of the project on screen. Every valid change of the draft is solved again,
+ * lightly debounced, in the solver worker; while the draft has problems the last valid
+ * results stay up, marked as such. Also the plain-language warnings every screen can reach.
+ */
+import { defineStore } from 'pinia'
+import { computed, ref, shallowRef, watch } from 'vue'
+import type { Project } from '../../core/model/project'
+import { pairSentence } from '../../core/charts/interference-chart'
+import { figure } from '../../core/charts/chart-text'
+import { SolverSuperseded, useSolver } from '../solver/solver-client'
+import type { SolvedModel } from '../solver/solver-tasks'
+import { useProjectStore } from './project-store'
+
+/** Wait this long after the last keystroke before solving. */
+export const SOLVE_DEBOUNCE_MS = 120
+
+/** A reported frequency further than this from the exact reference asks for a finer mesh. */
+export const MESH_ERROR_NOTE = 0.01
+
+export type WarningLevel = 'conflict' | 'problem' | 'note'
+
+export interface ScreenWarning {
+  readonly level: WarningLevel
+  readonly text: string
+  /** The view that shows it. */
+  readonly view: 'part' | 'modes' | 'resonance' | 'convergence'
+}
+
+export const useResultsStore = defineStore('results', () => {
+  const project = useProjectStore()
+  const solved = shallowRef<SolvedModel | null>(null)
+  const solving = ref(false)
+  const failure = ref<string | null>(null)
+  /** JSON of the project the results belong to. */
+  const solvedText = ref<string | null>(null)
+  let timer: ReturnType<typeof setTimeout> | null = null
+  let generation = 0
+
+  const current = computed(() => (project.validProject ? JSON.stringify(project.validProject) : null))
+  /** The results are of an older model than the one on screen (it has problems, or a solve is on its way). */
+  const stale = computed(() => solved.value !== null && solvedText.value !== current.value)
+
+  async function solveNow(model: Project, text: string): Promise<void> {
+    const ticket = ++generation
+    solving.value = true
+    try {
+      const result = await useSolver().solve(model)
+      if (ticket !== generation) return
+      solved.value = result
+      solvedText.value = text
+      failure.value = null
+    } catch (error) {
+      if (error instanceof SolverSuperseded || ticket !== generation) return
+      failure.value = error instanceof Error ? error.message : String(error)
+    } finally {
+      if (ticket === generation) solving.value = false
+    }
+  }
+
+  /** Solves the current model now (the debounce is for typing; loading a file wants its results at once). */
+  function solveCurrent(): Promise<void> {
+    if (timer) clearTimeout(timer)
+    timer = null
+    const model = project.validProject
+    const text = current.value
+    if (!model || text === null || text === solvedText.value) return Promise.resolve()
+    return solveNow(model, text)
+  }
+
+  watch(current, (text) => {
+    if (timer) clearTimeout(timer)
+    if (text === null || text === solvedText.value) return
+    timer = setTimeout(() => {
+      timer = null
+      void solveCurrent()
+    }, SOLVE_DEBOUNCE_MS)
+  })
+
+  const firstElastic = computed(() => solved.value?.modes.find((m) => !m.rigidBody) ?? null)
+  const conflicts = computed(() => solved.value?.resonance.filter((p) => p.status === 'conflict') ?? [])
+  /** The pair with the smallest separation of all, the one to look at first. */
+  const closestPair = computed(() => {
+    let best = null as SolvedModel['resonance'][number] | null
+    for (const p of solved.value?.resonance ?? []) if (!best || Math.abs(p.separation) < Math.abs(best.separation)) best = p
+    return best
+  })
+
+  const warnings = computed<ScreenWarning[]>(() => {
+    const list: ScreenWarning[] = []
+    const problems = project.issues.length
+    if (problems > 0) {
+      list.push({
+        level: 'problem',
+        text: `The part has ${problems} problem${problems === 1 ? '' : 's'} to fix; the results shown are for the last valid model.`,
+        view: 'part',
+      })
+    }
+    if (failure.value) list.push({ level: 'problem', text: `The solver stopped: ${failure.value}`, view: 'modes' })
+    const result = solved.value
+    if (!result) return list
+    // Closest first: the pair most likely to resonate leads the list and the banner.
+    const byCloseness = [...conflicts.value].sort((a, b) => Math.abs(a.separation) - Math.abs(b.separation))
+    for (const pair of byCloseness) list.push({ level: 'conflict', text: pairSentence(pair), view: 'resonance' })
+    if (result.project.excitations.length === 0) {
+      list.push({ level: 'note', text: 'No excitations entered: the modes have not been checked against the machines nearby.', view: 'resonance' })
+    }
+    for (const w of result.modelWarnings) list.push({ level: 'problem', text: w.message, view: 'modes' })
+    for (const m of result.modes) {
+      if (m.errorVsReference !== null && Math.abs(m.errorVsReference) > MESH_ERROR_NOTE) {
+        list.push({
+          level: 'note',
+          text: `Mode ${m.mode} is ${figure(Math.abs(100 * m.errorVsReference), 2)} % from the exact solution on this mesh; a finer mesh or 3-node elements would close the gap.`,
+          view: 'convergence',
+        })
+      }
+    }
+    return list
+  })
+
+  return { solved, solving, failure, stale, firstElastic, conflicts, closestPair, warnings, solveCurrent }
+})

@@ -1,0 +1,80 @@
+/** What the window shows: the view, the theme, selections and open panels. No project data. */
+import { defineStore } from 'pinia'
+import { computed, ref, watch } from 'vue'
+import type { ConvergenceAxis } from '../../core/charts/convergence-chart'
+import type { ModeShapeLower } from '../../core/charts/mode-shape-chart'
+
+export type ViewName = 'part' | 'modes' | 'resonance' | 'convergence'
+export type ThemePreference = 'system' | 'light' | 'dark'
+
+export const VIEWS: readonly { name: ViewName; title: string }[] = [
+  { name: 'part', title: 'Part' },
+  { name: 'modes', title: 'Modes' },
+  { name: 'resonance', title: 'Resonance' },
+  { name: 'convergence', title: 'Convergence' },
+]
+
+const THEME_KEY = 'rodwave.theme'
+
+function storedTheme(): ThemePreference {
+  try {
+    const value = globalThis.localStorage?.getItem(THEME_KEY)
+    return value === 'light' || value === 'dark' ? value : 'system'
+  } catch {
+    return 'system'
+  }
+}
+
+export const useViewStore = defineStore('view', () => {
+  const activeView = ref<ViewName>('modes')
+  const themePreference = ref<ThemePreference>(storedTheme())
+  const query = typeof window !== 'undefined' && typeof window.matchMedia === 'function' ? window.matchMedia('(prefers-color-scheme: dark)') : null
+  const systemDark = ref(query?.matches ?? false)
+  query?.addEventListener('change', (event) => (systemDark.value = event.matches))
+  const dark = computed(() => (themePreference.value === 'system' ? systemDark.value : themePreference.value === 'dark'))
+  watch(themePreference, (value) => {
+    try {
+      globalThis.localStorage?.setItem(THEME_KEY, value)
+    } catch {
+      // Private windows may refuse storage; the choice then lasts for this session.
+    }
+  })
+
+  const selectedSegment = ref<number | null>(null)
+  /** Modes drawn in the mode-shape chart (0-based). */
+  const selectedModes = ref<number[]>([0, 1, 2])
+  const lowerQuantity = ref<ModeShapeLower>('stress')
+  const convergenceMode = ref<number | null>(null)
+  const convergenceAxis = ref<ConvergenceAxis>('elements')
+  const conflictsOnly = ref(false)
+  const warningsOpen = ref(false)
+  const cautionsOpen = ref(false)
+
+  function cycleTheme(): void {
+    const order: ThemePreference[] = ['system', 'light', 'dark']
+    themePreference.value = order[(order.indexOf(themePreference.value) + 1) % order.length]
+  }
+
+  function toggleMode(index: number): void {
+    const set = new Set(selectedModes.value)
+    if (set.has(index)) set.delete(index)
+    else set.add(index)
+    selectedModes.value = [...set].sort((a, b) => a - b)
+  }
+
+  return {
+    activeView,
+    themePreference,
+    dark,
+    selectedSegment,
+    selectedModes,
+    lowerQuantity,
+    convergenceMode,
+    convergenceAxis,
+    conflictsOnly,
+    warningsOpen,
+    cautionsOpen,
+    cycleTheme,
+    toggleMode,
+  }
+})

@@ -1,0 +1,189 @@
+// @vitest-environment happy-dom
+/**
+ * The chart option builders shared with the report (core/charts). Checks against
+ * independent facts: 1 rpm = 1/60 Hz (by definition of the minute); a uniform fixed–free
+ * bar's first mode shape sin(πx/2L) (S. S. Rao, Mechanical Vibrations, longitudinal
+ * vibration of bars, from memory); convergence orders 2 and 4 of 2- and 3-node elements
+ * (T. J. R. Hughes, The Finite Element Method, eigenvalue chapter, from memory); and,
+ * for the diagram, consistency with the resonance check of core/analysis/resonance.ts.
+ */
+import { describe, expect, it } from 'vitest'
+import type { LineSeriesOption, ScatterSeriesOption } from 'echarts'
+import { analyseProject } from '../../core/analysis/modal-analysis'
+import { convergenceStudy } from '../../core/analysis/convergence'
+import { separationFromBand, statusOf, type ResonancePair } from '../../core/analysis/resonance'
+import { readProjectDocument, readProjectText } from '../../core/model/project-schema'
+import type { Project } from '../../core/model/project'
+import {
+  convergenceChartOption,
+  interferenceChartInput,
+  interferenceChartOption,
+  interferenceConflictMarks,
+  modeMarginBand,
+  modeShapeChartData,
+  modeShapeChartOption,
+  observedOrderText,
+  pairSentence,
+} from '../../core/charts'
+import { DEMO_TEXT } from './renderer-helpers'
+
+function project(doc: Record<string, unknown>): Project {
+  const read = readProjectDocument({ format: 'rodwave', version: 1, ends: { start: 'fixed', end: 'free' }, ...doc })
+  if (!read.ok) throw new Error(read.issues.map((i) => `${i.path}: ${i.message}`).join('\n'))
+  return read.project
+}
+
+const UNIFORM = project({
+  materials: [{ id: 'steel', youngsModulus: 200e9, density: 7850 }],
+  segments: [{ length: 1, material: 'steel', section: { shape: 'solid', diameter: 0.02 } }],
+  analysis: { elementOrder: 1, elementsPerSegment: 200, mass: 'consistent', modes: 3 },
+  excitations: [{ label: 'Fan <1>', rpm: [70_000, 74_000], orders: [1] }, { label: 'Hum', hz: 1300 }],
+  margin: 0.1,
+})
+
+function demo(): Project {
+  const read = readProjectText(DEMO_TEXT)
+  if (!read.ok) throw new Error('fixture')
+  return read.project
+}
+
+const series = (option: ReturnType<typeof interferenceChartOption>) => option.series as (LineSeriesOption | ScatterSeriesOption)[]
+
+describe('interference diagram', () => {
+  it('draws each order as a line from the origin with slope order/60 Hz per rpm', () => {
+    const analysis = analyseProject(demo())
+    const option = interferenceChartOption(interferenceChartInput(analysis), { interactive: false, units: 'SI' })
+    const line = series(option).find((s) => s.name === 'Condensate pump speed ×7') as LineSeriesOption
+    const [[x0, y0], [x1, y1]] = line.data as number[][]
+    expect([x0, y0]).toEqual([0, 0])
+    expect(y1 / x1).toBeCloseTo(7 / 60, 12)
+  })
+
+  it('draws each natural frequency where the resonance check takes it: the exact value where known', () => {
+    const analysis = analyseProject(demo())
+    const option = interferenceChartOption(interferenceChartInput(analysis), { interactive: false, units: 'SI' })
+    const modes = series(option).find((s) => s.name === 'Natural frequencies') as LineSeriesOption
+    const first = (modes.markLine!.data as { yAxis: number }[])[0].yAxis
+    expect(first).toBe(analysis.modes[0].referenceHz)
+    expect(first).toBe(analysis.resonance.find((p) => p.mode === 1)!.frequencyHz)
+  })
+
+  it('marks exactly the pairs the resonance check calls conflicts, each inside its excitation band', () => {
+    const analysis = analyseProject(demo())
+    const input = interferenceChartInput(analysis)
+    const marks = interferenceConflictMarks(input)
+    const conflicts = analysis.resonance.filter((p) => p.status === 'conflict')
+    expect(marks.map((m) => m.pair)).toEqual(conflicts)
+    expect(conflicts.length).toBeGreaterThan(0)
+    for (const mark of marks) {
+      expect(mark.hz).toBeGreaterThanOrEqual(mark.pair.band.hz[0])
+      expect(mark.hz).toBeLessThanOrEqual(mark.pair.band.hz[1])
+      if (mark.rpm !== null) expect(mark.hz).toBeCloseTo((mark.rpm * mark.pair.band.order!) / 60, 9)
+    }
+    const scatter = series(interferenceChartOption(input, { interactive: true, units: 'SI' })).find((s) => s.name === 'Conflicts') as ScatterSeriesOption
+    expect(scatter.data).toHaveLength(conflicts.length)
+  })
+
+  it('draws the margin band as exactly the excitation frequencies the resonance check flags', () => {
+    const f = 106.36
+    for (const margin of [0.1, 0.15, 0.25]) {
+      const [lo, hi] = modeMarginBand(f, margin)
+      const status = (e: number) => statusOf(separationFromBand(f, [e, e]), margin)
+      expect(status(lo * (1 + 1e-9))).toBe('conflict')
+      expect(status(lo * (1 - 1e-9))).toBe('clear')
+      expect(status(hi * (1 - 1e-9))).toBe('conflict')
+      expect(status(hi * (1 + 1e-9))).toBe('clear')
+    }
+  })
+
+  it('has tooltips, zoom and animation for the app and none of them for the report', () => {
+    const input = interferenceChartInput(analyseProject(UNIFORM))
+    const app = interferenceChartOption(input, { interactive: true, units: 'SI' })
+    const report = interferenceChartOption(input, { interactive: false, units: 'SI' })
+    expect(app.tooltip).toBeDefined()
+    expect(app.dataZoom).toBeDefined()
+    expect(app.animation).toBe(true)
+    expect(report.tooltip).toBeUndefined()
+    expect(report.dataZoom).toBeUndefined()
+    expect(report.animation).toBe(false)
+  })
+
+  it('escapes labels typed by the user in its tooltips', () => {
+    const analysis = analyseProject(UNIFORM)
+    const option = interferenceChartOption(interferenceChartInput(analysis), { interactive: true, units: 'SI' })
+    const formatter = (option.tooltip as { formatter: (p: unknown) => string }).formatter
+    expect(formatter({ seriesName: 'Fan <1> ×1', componentType: 'series' })).toBe('Fan &lt;1&gt; ×1')
+  })
+})
+
+describe('warning sentences', () => {
+  it('say which mode, how far, above or below which excitation', () => {
+    const pair: ResonancePair = {
+      mode: 1,
+      frequencyHz: 106.356,
+      band: { excitationIndex: 1, label: 'Motor twice line frequency', order: null, hz: [100, 100] },
+      separation: 0.06356,
+      status: 'conflict',
+    }
+    expect(pairSentence(pair)).toBe('Mode 1 at 106 Hz is 6.4 % above Motor twice line frequency (100 Hz)')
+    expect(pairSentence({ ...pair, frequencyHz: 95, separation: -0.05 })).toBe('Mode 1 at 95 Hz is 5 % below Motor twice line frequency (100 Hz)')
+    const band = { excitationIndex: 0, label: 'Pump', order: 2, hz: [98.6667, 99.6667] as const }
+    expect(pairSentence({ ...pair, frequencyHz: 99, separation: 0, band })).toBe('Mode 1 at 99 Hz lies inside Pump ×2 (98.67–99.67 Hz, 2960–2990 rpm)')
+  })
+})
+
+describe('mode shapes', () => {
+  it('scales each mode to a peak of 1; a uniform fixed–free bar’s first mode is sin(πx/2L)', () => {
+    const analysis = analyseProject(UNIFORM)
+    const data = modeShapeChartData(analysis, [0])
+    const curve = data.curves[0]
+    expect(Math.max(...curve.displacement.map(Math.abs))).toBeCloseTo(1, 12)
+    let worst = 0
+    curve.x.forEach((x, i) => (worst = Math.max(worst, Math.abs(curve.displacement[i] - Math.sin((Math.PI * x) / 2)))))
+    expect(worst, `largest deviation from sin(πx/2L): ${worst}`).toBeLessThan(1e-4)
+    // Strain of the scaled shape: d/dx sin(πx/2L) = (π/2L) cos(πx/2L), largest at the fixed end.
+    expect(curve.strain[0]).toBeCloseTo(Math.PI / 2, 2)
+  })
+
+  it('thins fine meshes but keeps every segment boundary', () => {
+    const fine = project({
+      materials: [{ id: 'steel', youngsModulus: 200e9, density: 7850 }],
+      segments: [
+        { length: 1, material: 'steel', section: { shape: 'solid', diameter: 0.02 } },
+        { length: 0.5, material: 'steel', section: { shape: 'solid', diameter: 0.03 } },
+      ],
+      analysis: { elementOrder: 1, elementsPerSegment: 3000, mass: 'consistent', modes: 2 },
+    })
+    const curve = modeShapeChartData(analyseProject(fine), [0], 500).curves[0]
+    expect(curve.x.length).toBeLessThanOrEqual(520)
+    expect(curve.x).toContain(1)
+    expect(curve.x.at(-1)).toBeCloseTo(1.5, 12)
+  })
+
+  it('gives stress per peak displacement in MPa/mm (SI) or psi/in (US)', () => {
+    const data = modeShapeChartData(analyseProject(UNIFORM), [0])
+    const si = modeShapeChartOption(data, { interactive: false, units: 'SI' })
+    const us = modeShapeChartOption(data, { interactive: false, units: 'US' })
+    const lower = (o: typeof si) => ((o.series as LineSeriesOption[]).filter((s) => s.yAxisIndex === 1 && s.name !== 'Segment boundaries')[0].data as number[][])[0][1]
+    // σ = E ε: 200 GPa × (π/2) per m of peak displacement = 314.16 MPa/mm at the fixed end.
+    expect(lower(si)).toBeCloseTo((200e9 * (Math.PI / 2) * 1e-3) / 1e6, -1)
+    // 1 psi/in = 6894.757 Pa / 0.0254 m (NIST SP 811).
+    expect(lower(us) / lower(si)).toBeCloseTo(1e6 / 1e-3 / (6894.757293168361 / 0.0254), 6)
+  })
+})
+
+describe('convergence chart', () => {
+  it('puts each line’s observed order in its legend: about 2 for 2-node and 4 for 3-node elements', () => {
+    const study = convergenceStudy(UNIFORM, { modes: 2, densities: [2, 4, 8, 16], masses: ['consistent', 'lumped'] })
+    const option = convergenceChartOption(study, { interactive: false, units: 'SI', mode: 1 })
+    const names = (option.legend as { data: string[] }).data
+    expect(names).toHaveLength(4)
+    study.series.forEach((s, i) => {
+      expect(names[i]).toContain(observedOrderText(s, 0))
+      expect(s.observedOrder[0]).toBeCloseTo(s.elementOrder === 1 ? 2 : 4, 1)
+    })
+    // The error axis carries log10 |error|.
+    const first = (option.series as LineSeriesOption[])[0].data as number[][]
+    expect(10 ** first[0][1]).toBeCloseTo(Math.abs(study.series[0].points[0].errors[0]!), 12)
+  })
+})

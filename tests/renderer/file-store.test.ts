@@ -1,0 +1,200 @@
+// @vitest-environment happy-dom
+/**
+ * Files and commands through the bridge, with an in-memory bridge and the in-page solver:
+ * the demo opens solved, a bad file is refused whole with its problems and the model on
+ * screen stays as it was, saving writes the project file and clears the recovery copy,
+ * unsaved work is written for recovery, menu commands run, exports carry the right content.
+ * Expected values come from core itself (analyseProject, readProjectText, writeProjectText,
+ * modalSummaryCsv): these tests check the window's plumbing, not the engine.
+ */
+import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest'
+import { analyseProject } from '../../core/analysis/modal-analysis'
+import { modalSummaryCsv } from '../../core/analysis/modal-summary'
+import { readProjectText, validateProject } from '../../core/model/project-schema'
+import { writeProjectText } from '../../core/model/project-file'
+import { AUTOSAVE_MS, useFileStore } from '../../renderer/stores/file-store'
+import { useProjectStore } from '../../renderer/stores/project-store'
+import { useResultsStore } from '../../renderer/stores/results-store'
+import { useViewStore } from '../../renderer/stores/view-store'
+import * as edits from '../../renderer/stores/project-edits'
+import { DEMO_TEXT, freshApp, MemoryBridge, settle } from './renderer-helpers'
+
+function demo() {
+  const read = readProjectText(DEMO_TEXT)
+  if (!read.ok) throw new Error('fixture')
+  return read.project
+}
+
+describe('file store', () => {
+  let bridge: MemoryBridge
+
+  beforeEach(async () => {
+    bridge = freshApp()
+    await useFileStore().start()
+    await settle()
+  })
+
+  afterEach(() => {
+    useFileStore().stop()
+    vi.useRealTimers()
+  })
+
+  it('opens the demo solved, with the frequencies the engine computes', () => {
+    const results = useResultsStore()
+    const expected = analyseProject(demo())
+    expect(useFileStore().ready).toBe(true)
+    expect(results.solved?.modes.map((m) => m.frequencyHz)).toEqual(expected.modes.map((m) => m.frequencyHz))
+    expect(results.firstElastic?.frequencyHz).toBe(expected.modes[0].frequencyHz)
+    expect(useProjectStore().dirty).toBe(false)
+    // Not saved to a file yet: the shell shows the project's own title.
+    expect(bridge.states.at(-1)).toEqual({ dirty: false, title: 'Pipe hanger HR-7, condensate pump skid' })
+  })
+
+  it('refuses a bad file with every problem by path, and keeps the model on screen', async () => {
+    const project = useProjectStore()
+    project.edit((p) => edits.setSegmentLength(p, 2, 0.9), 'segments[2].length')
+    const before = project.draftText
+    const bad = JSON.parse(DEMO_TEXT)
+    bad.segments[0].length = -2
+    bad.segments[1].section.innerDiameter = 0.05
+    bad.analysis.mass = 'heavy'
+    const text = JSON.stringify(bad)
+    bridge.nextOpen = { kind: 'opened', path: '/p/bad.rodwave.json', name: 'bad.rodwave.json', text }
+    const files = useFileStore()
+    // The edit is unsaved: the store asks first; agree to open another project.
+    const opening = files.open()
+    await settle()
+    files.confirmation!.resolve(true)
+    await opening
+    const read = readProjectText(text)
+    expect(read.ok).toBe(false)
+    expect(files.refused?.issues).toEqual(read.ok ? [] : read.issues)
+    expect(files.refused?.issues.map((i) => i.path)).toEqual(expect.arrayContaining(['segments[0].length', 'segments[1].section.innerDiameter', 'analysis.mass']))
+    expect(project.draftText).toBe(before)
+    expect(project.dirty).toBe(true)
+  })
+
+  it('keeps editing when the user declines to drop unsaved work', async () => {
+    const project = useProjectStore()
+    project.edit((p) => edits.setEnd(p, 'end', 'fixed'))
+    const files = useFileStore()
+    const starting = files.newDocument()
+    await settle()
+    expect(files.confirmation?.message).toContain('not saved')
+    files.confirmation!.resolve(false)
+    await starting
+    expect(project.draft.ends.end).toBe('fixed')
+  })
+
+  it('opens a good file and solves it', async () => {
+    const other = { ...demo(), title: 'Shorter hanger', segments: demo().segments.map((s, i) => (i === 0 ? { ...s, length: 1.5 } : s)), masses: [] }
+    const text = writeProjectText(other)
+    bridge.nextOpen = { kind: 'opened', path: '/p/short.rodwave.json', name: 'short.rodwave.json', text }
+    await useFileStore().open()
+    await settle()
+    expect(useProjectStore().fileName).toBe('short.rodwave.json')
+    expect(useResultsStore().firstElastic?.frequencyHz).toBe(analyseProject(other).modes[0].frequencyHz)
+  })
+
+  it('saves the project file, marks it clean and clears the recovery copy', async () => {
+    const project = useProjectStore()
+    project.edit((p) => edits.updateAttachment(p, 'masses', 1, 'mass', 40), 'masses[1].mass')
+    await useFileStore().runCommand('save')
+    expect(bridge.saved).toHaveLength(1)
+    expect(bridge.saved[0].path).toBeNull()
+    expect(bridge.saved[0].text).toBe(writeProjectText(project.validProject!))
+    expect(readProjectText(bridge.saved[0].text).ok).toBe(true)
+    expect(project.dirty).toBe(false)
+    expect(project.filePath).toBe('/projects/condensate-pump-hanger.rodwave.json')
+    expect(bridge.recoveryCleared).toBe(1)
+  })
+
+  it('refuses to save a part with problems and says why', async () => {
+    const project = useProjectStore()
+    project.edit((p) => edits.setSegmentLength(p, 0, -1))
+    const problems = validateProject(JSON.parse(project.draftText)).length
+    expect(problems).toBeGreaterThan(0)
+    const files = useFileStore()
+    expect(await files.save()).toBe(false)
+    expect(bridge.saved).toHaveLength(0)
+    expect(files.notice?.kind).toBe('error')
+    expect(files.notice?.text).toContain(`The part has ${problems} problem`)
+  })
+
+  it('writes unsaved work to the recovery file every few seconds', async () => {
+    vi.useFakeTimers()
+    const files = useFileStore()
+    files.stop()
+    await files.start()
+    useProjectStore().edit((p) => edits.setEnd(p, 'start', 'free'))
+    await vi.advanceTimersByTimeAsync(AUTOSAVE_MS + 10)
+    expect(bridge.recoveryWrites.at(-1)).toBe(useProjectStore().draftText)
+    const writes = bridge.recoveryWrites.length
+    await vi.advanceTimersByTimeAsync(AUTOSAVE_MS + 10)
+    expect(bridge.recoveryWrites).toHaveLength(writes)
+  })
+
+  it('offers a recovery file found at start and restores it as unsaved work', async () => {
+    const recovered = { ...demo(), title: 'Recovered hanger' }
+    const second = freshApp()
+    second.recovery = writeProjectText(recovered)
+    const files = useFileStore()
+    await files.start()
+    expect(files.recoveryText).toBe(second.recovery)
+    await files.restoreRecovery()
+    expect(useProjectStore().draft.title).toBe('Recovered hanger')
+    expect(useProjectStore().dirty).toBe(true)
+    files.stop()
+  })
+
+  it('runs the desktop menu’s commands, once when the keyboard sends the same', async () => {
+    const project = useProjectStore()
+    project.edit((p) => edits.setEnd(p, 'end', 'fixed'))
+    bridge.menu('undo')
+    await settle()
+    expect(project.draft.ends.end).toBe('free')
+    // The same command twice at once (menu accelerator and key together) runs once.
+    await new Promise((resolve) => setTimeout(resolve, 350))
+    project.edit((p) => edits.setEnd(p, 'end', 'fixed'))
+    project.edit((p) => edits.setEnd(p, 'start', 'free'))
+    bridge.menu('undo')
+    bridge.menu('undo')
+    await settle()
+    expect(project.draft.ends).toEqual({ start: 'fixed', end: 'fixed' })
+    bridge.menu('cautions')
+    expect(useViewStore().cautionsOpen).toBe(true)
+  })
+
+  it('opens a file chosen under the desktop menu’s Open recent', async () => {
+    const other = { ...demo(), title: 'From the recent list' }
+    bridge.nextOpen = { kind: 'opened', path: '/p/recent.rodwave.json', name: 'recent.rodwave.json', text: writeProjectText(other) }
+    bridge.chooseRecent('/p/recent.rodwave.json')
+    await settle()
+    expect(bridge.recentRequested).toEqual(['/p/recent.rodwave.json'])
+    expect(useProjectStore().draft.title).toBe('From the recent list')
+  })
+
+  it('exports the modal summary with one row per mode', async () => {
+    await useFileStore().runCommand('export-csv')
+    expect(bridge.exported).toHaveLength(1)
+    const request = bridge.exported[0]
+    expect(request.kind).toBe('csv')
+    expect(request.suggestedName).toBe('condensate-pump-hanger-modal-summary.csv')
+    const analysis = analyseProject(demo())
+    expect(request.content).toBe(modalSummaryCsv(analysis))
+    expect(request.content.trim().split('\r\n')).toHaveLength(1 + analysis.modes.length)
+  })
+
+  it('exports the report as HTML for the HTML and the PDF commands', async () => {
+    await useFileStore().runCommand('export-report-html')
+    await useFileStore().runCommand('export-report-pdf')
+    expect(bridge.exported.map((e) => [e.kind, e.suggestedName])).toEqual([
+      ['html', 'condensate-pump-hanger-report.html'],
+      ['pdf', 'condensate-pump-hanger-report.pdf'],
+    ])
+    for (const e of bridge.exported) {
+      expect(e.content).toMatch(/^<!doctype html>/i)
+      expect(e.content).toContain('Pipe hanger HR-7')
+    }
+  })
+})
