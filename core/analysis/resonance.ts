@@ -27,6 +27,8 @@ export interface ResonancePair {
   readonly band: ExcitationBand
   readonly separation: number
   readonly status: ResonanceStatus
+  /** When the check used the mode's tolerance band: its 5 % and 95 % frequencies. */
+  readonly modeBandHz?: readonly [number, number]
 }
 
 export function excitationLabel(excitation: Excitation, index: number): string {
@@ -59,22 +61,40 @@ export function separationFromBand(frequencyHz: number, band: readonly [number, 
   return 0
 }
 
+/**
+ * Separation of a frequency band (e.g. a mode's 5–95 % tolerance scatter) from an excitation
+ * band: the nearest points of the two, 0 when they overlap.
+ */
+export function separationBetweenBands(mode: readonly [number, number], band: readonly [number, number]): number {
+  const [a, b] = mode
+  const [lo, hi] = band
+  if (b < lo) return (b - lo) / lo
+  if (a > hi) return (a - hi) / hi
+  return 0
+}
+
 export function statusOf(separation: number, margin: number): ResonanceStatus {
   return Math.abs(separation) < margin ? 'conflict' : 'clear'
 }
 
-/** Every (elastic mode, band) pair, mode by mode in the order of the bands. */
+/**
+ * Every (elastic mode, band) pair, mode by mode in the order of the bands. With `scatter`
+ * (per mode, the 5 % and 95 % frequencies of the tolerance scatter) the check uses each mode's
+ * band instead of its nominal frequency, as a check with tolerances must.
+ */
 export function resonancePairs(
   modes: readonly { mode: number; frequencyHz: number; rigidBody: boolean }[],
   project: Pick<Project, 'excitations' | 'margin'>,
+  scatter?: ReadonlyMap<number, readonly [number, number]>,
 ): ResonancePair[] {
   const bands = excitationBands(project.excitations)
   const pairs: ResonancePair[] = []
   for (const m of modes) {
     if (m.rigidBody) continue
+    const spread = scatter?.get(m.mode)
     for (const band of bands) {
-      const separation = separationFromBand(m.frequencyHz, band.hz)
-      pairs.push({ mode: m.mode, frequencyHz: m.frequencyHz, band, separation, status: statusOf(separation, project.margin) })
+      const separation = spread ? separationBetweenBands(spread, band.hz) : separationFromBand(m.frequencyHz, band.hz)
+      pairs.push({ mode: m.mode, frequencyHz: m.frequencyHz, band, separation, status: statusOf(separation, project.margin), ...(spread ? { modeBandHz: spread } : {}) })
     }
   }
   return pairs

@@ -101,3 +101,19 @@ describe('on a solved part', () => {
     expect(csv).toContain('"Fan ""A"", outboard"')
   })
 })
+
+describe('with tolerance bands', () => {
+  test('a mode band overlapping the excitation is a conflict; otherwise the nearest points count', () => {
+    // Mode band 95–105 Hz against 110 Hz: nearest points 105 and 110, (105 − 110)/110 = −0.04545.
+    const modes = [{ mode: 1, frequencyHz: 100, rigidBody: false }]
+    const project = { excitations: [{ hz: 110 }, { hz: 102 }], margin: 0.05 }
+    const pairs = resonancePairs(modes, project, new Map([[1, [95, 105] as [number, number]]]))
+    expect(pairs[0].separation).toBeCloseTo(-5 / 110, 14)
+    expect(pairs[0].status).toBe('conflict')
+    // 102 Hz lies inside 95–105 Hz: separation 0.
+    expect(pairs[1].separation).toBe(0)
+    expect(pairs[1].modeBandHz).toEqual([95, 105])
+    // Without the band the nominal 100 Hz is (100 − 110)/110 = −0.0909 away: clear at 5 %.
+    expect(resonancePairs(modes, project)[0].status).toBe('clear')
+  })
+})
