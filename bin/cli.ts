@@ -138,7 +138,8 @@ export async function runCli(argv: readonly string[], io: CliIo): Promise<number
     text = await io.readFile(file)
   } catch (error) {
     const code = (error as { code?: string }).code
-    const reason = code === 'ENOENT' ? 'no such file' : code === 'EISDIR' ? 'it is a folder' : error instanceof Error ? error.message : String(error)
+    const reason =
+      code === 'ENOENT' ? 'no such file' : code === 'EISDIR' ? 'it is a folder' : code === 'EACCES' ? 'permission denied' : error instanceof Error ? error.message : String(error)
     io.stderr(`rodwave: cannot read ${file}: ${reason}\n`)
     return 1
   }

@@ -1,10 +1,21 @@
 #!/usr/bin/env node
 /** Entry point of the command line: binds runCli to the real file system and streams. */
-import { readFile, writeFile } from 'node:fs/promises'
+import { readFile, stat, writeFile } from 'node:fs/promises'
+import { MAX_FILE_CHARACTERS } from '../core/model/project-schema'
 import { runCli } from './cli'
 
+/** Reads a project file, refusing one too large to be a project before loading it into memory. */
+async function readProjectFile(path: string): Promise<string> {
+  const info = await stat(path)
+  if (info.isDirectory()) throw Object.assign(new Error('it is a folder'), { code: 'EISDIR' })
+  if (info.size > 4 * MAX_FILE_CHARACTERS) {
+    throw Object.assign(new Error(`it is ${(info.size / 1e6).toFixed(0)} MB; a project file may have at most ${MAX_FILE_CHARACTERS / 1e6} million characters`), { code: 'EFBIG' })
+  }
+  return readFile(path, 'utf8')
+}
+
 runCli(process.argv.slice(2), {
-  readFile: (path) => readFile(path, 'utf8'),
+  readFile: readProjectFile,
   writeFile: (path, data) => writeFile(path, data),
   stdout: (text) => process.stdout.write(text),
   stderr: (text) => process.stderr.write(text),
