@@ -10,9 +10,10 @@
  * the samples between workers gives the same result.
  */
 import { seededRandom, type RandomSource } from '../random'
-import type { Project, Tolerances } from '../model/project'
+import type { Material, Project, Section, Tolerances } from '../model/project'
+import { resolveMaterial, segmentBoundaries } from '../model/geometry'
 import { analyseProject, type ModalAnalysis } from './modal-analysis'
-import { designParameters, withParameter } from './design-parameters'
+import { designParameters } from './design-parameters'
 
 export interface ScatterQuantiles {
   readonly mode: number
@@ -40,14 +41,52 @@ const TOLERANCE_OF: Record<string, keyof Tolerances> = {
 }
 
 /** One random draw of the project within its tolerances. */
-export function scatterDraw(project: Project, tolerances: Tolerances, random: RandomSource): Project {
-  let drawn = project
-  for (const parameter of designParameters(project)) {
-    const tolerance = tolerances[TOLERANCE_OF[parameter.target.kind]] ?? 0
-    // Draw for every parameter, even with zero tolerance, so streams line up across settings.
+export function scatterDraw(project: Project, tolerances: Tolerances, random: RandomSource, parameters = designParameters(project)): Project {
+  // One factor per parameter, in the parameters' order (drawn even for a zero tolerance, so
+  // that streams line up whichever tolerances are set).
+  const factors = parameters.map((parameter) => {
     const u = 2 * random() - 1
-    if (tolerance === 0) continue
-    drawn = withParameter(drawn, parameter.target, parameter.value * (1 + tolerance * u))
+    const tolerance = tolerances[TOLERANCE_OF[parameter.target.kind]] ?? 0
+    return 1 + tolerance * u
+  })
+  const lengths = project.segments.map((s) => s.length)
+  const sections = project.segments.map((s) => ({ ...s.section }) as Record<string, number | string>)
+  const materialValues = new Map<string, { youngsModulus?: number; density?: number }>()
+  const masses = project.masses.map((m) => m.mass)
+  const stiffnesses = project.springs.map((s) => s.stiffness)
+  parameters.forEach((parameter, i) => {
+    const target = parameter.target
+    const value = parameter.value * factors[i]
+    if (target.kind === 'segmentLength') lengths[target.segment] = value
+    else if (target.kind === 'sectionDimension') sections[target.segment][target.dimension] = value
+    else if (target.kind === 'youngsModulus' || target.kind === 'density') materialValues.set(target.material, { ...materialValues.get(target.material), [target.kind]: value })
+    else if (target.kind === 'mass') masses[target.index] = value
+    else stiffnesses[target.index] = value
+  })
+  // Attachments keep their fraction of the segment they sit in; later segments move with the
+  // change of the ones before (the file format's rule, applied to every length at once).
+  const oldBounds = segmentBoundaries(project.segments)
+  const newBounds = [0]
+  for (const l of lengths) newBounds.push(newBounds[newBounds.length - 1] + l)
+  const move = (at: number): number => {
+    let s = 0
+    while (s + 1 < lengths.length && at > oldBounds[s + 1]) s++
+    const fraction = (at - oldBounds[s]) / (oldBounds[s + 1] - oldBounds[s])
+    return newBounds[s] + fraction * lengths[s]
+  }
+  const materials = project.materials.map((m) => (materialValues.has(m.id) ? { ...m, ...materialValues.get(m.id) } : m))
+  for (const [id, values] of materialValues) {
+    if (!materials.some((m) => m.id === id)) {
+      const library = resolveMaterial({ materials: [] }, id) as Material
+      materials.push({ ...library, ...values })
+    }
+  }
+  const drawn: Project = {
+    ...project,
+    materials,
+    segments: project.segments.map((s, i) => ({ ...s, length: lengths[i], section: sections[i] as unknown as Section })),
+    masses: project.masses.map((m, i) => ({ ...m, at: move(m.at), mass: masses[i] })),
+    springs: project.springs.map((sp, i) => ({ ...sp, at: move(sp.at), stiffness: stiffnesses[i] })),
   }
   drawn.segments.forEach((segment, i) => {
     if (segment.section.shape === 'tube' && !(segment.section.innerDiameter < segment.section.outerDiameter)) {
@@ -72,9 +111,10 @@ export function scatterFrequencies(project: Project, run: ScatterRun, nominal?: 
   const base = nominal ?? analyseProject(project, overrides, { withReference: false })
   const modes = base.modes.length
   const out = new Float64Array(run.count * modes)
+  const parameters = designParameters(project)
   for (let s = 0; s < run.count; s++) {
     const random = seededRandom(sampleSeed(run.seed, run.start + s))
-    const drawn = scatterDraw(project, tolerances, random)
+    const drawn = scatterDraw(project, tolerances, random, parameters)
     const analysis = analyseProject(drawn, overrides, { withReference: false, warmStart: base })
     for (let m = 0; m < modes; m++) out[s * modes + m] = analysis.modes[m]?.frequencyHz ?? NaN
   }

@@ -15,7 +15,8 @@ import { describe, expect, test } from 'vitest'
 import { designParameters, withParameter, withSegmentLength } from '../../core/analysis/design-parameters'
 import { frequencySensitivities } from '../../core/analysis/sensitivity'
 import { tuneParameter } from '../../core/analysis/tuner'
-import { scatterFrequencies, scatterQuantiles } from '../../core/analysis/tolerance-scatter'
+import { scatterDraw, scatterFrequencies, scatterQuantiles } from '../../core/analysis/tolerance-scatter'
+import { seededRandom } from '../../core/random'
 import { analyseProject } from '../../core/analysis/modal-analysis'
 import { forcedResponse } from '../../core/analysis/forced-response'
 import { exactReference } from '../../core/exact/reference'
@@ -136,6 +137,27 @@ describe('tolerance scatter', () => {
       expectRelative(q.p50, analytic(0.5), 1e-3, `mode ${m + 1} p50`)
       expectRelative(q.p95, analytic(0.95), 1e-3, `mode ${m + 1} p95`)
     })
+  })
+  test('a draw moves attachments as the file-format rule does for each length change in turn', () => {
+    const project = makeProject({
+      materials: [{ id: 'st', youngsModulus: 2e11, density: 7850 }],
+      segments: [
+        { length: 1, material: 'st', section: { shape: 'solid', diameter: 0.02 } },
+        { length: 0.5, material: 'st', section: { shape: 'solid', diameter: 0.03 } },
+        { length: 0.8, material: 'st', section: { shape: 'solid', diameter: 0.02 } },
+      ],
+      masses: [
+        { at: 0.4, mass: 1 },
+        { at: 1.5, mass: 1 },
+        { at: 2.0, mass: 1 },
+      ],
+      springs: [{ at: 2.3, stiffness: 1e6 }],
+    })
+    const drawn = scatterDraw(project, { length: 0.1 }, seededRandom(3))
+    let sequential = project
+    drawn.segments.forEach((s, i) => (sequential = withSegmentLength(sequential, i, s.length)))
+    drawn.masses.forEach((m, i) => expect(m.at).toBeCloseTo(sequential.masses[i].at, 12))
+    expect(drawn.springs[0].at).toBeCloseTo(sequential.springs[0].at, 12)
   })
   test('a sample does not depend on how the samples are split', () => {
     const project = uniformBar({ extra: { tolerances: { youngsModulus: 0.03, length: 0.01, diameter: 0.01 }, analysis: { elementsPerSegment: 10, modes: 3 } } })
