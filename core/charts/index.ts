@@ -10,3 +10,4 @@ export { figure, signedPercent, signedPercentFigure, escapeHtml } from './chart-
 export * from './mode-shape-chart'
 export * from './convergence-chart'
 export * from './interference-chart'
+export * from './response-chart'

@@ -10,6 +10,10 @@
  * own statuses); this file only places them. The band drawn around a natural frequency f
  * is the set of excitation frequencies e that resonance.ts calls a conflict,
  * |f − e| / e < margin, i.e. f/(1 + margin) < e < f/(1 − margin).
+ *
+ * With a tolerance scatter, each mode's 5–95 % band is drawn as well; where the check used
+ * those bands (the pairs carry `modeBandHz`), the margin band is the set of excitations the
+ * check calls a conflict with the band [a, b]: a/(1 + margin) < e < b/(1 − margin).
  */
 import type { EChartsOption, LineSeriesOption, ScatterSeriesOption } from 'echarts'
 import type { ModalAnalysis } from '../analysis/modal-analysis'
@@ -26,6 +30,8 @@ export interface InterferenceChartInput {
   readonly margin: number
   /** The resonance pairs of core/analysis/resonance.ts for these modes and excitations. */
   readonly resonance: readonly ResonancePair[]
+  /** Tolerance bands of the modes (the 5 % and 95 % frequencies of a scatter of this part), drawn when given. */
+  readonly scatter?: readonly { readonly mode: number; readonly p05: number; readonly p95: number }[]
 }
 
 export function interferenceChartInput(analysis: ModalAnalysis): InterferenceChartInput {
@@ -40,6 +46,24 @@ export function checkedFrequency(mode: InterferenceChartInput['modes'][number]):
 /** Excitation frequencies within the margin of a natural frequency: [f/(1 + margin), f/(1 − margin)]. */
 export function modeMarginBand(frequencyHz: number, margin: number): [number, number] {
   return [frequencyHz / (1 + margin), frequencyHz / (1 - margin)]
+}
+
+/**
+ * Excitation frequencies the check calls a conflict with a pair's mode: around its frequency, or
+ * around its tolerance band where the check used one (separationBetweenBands in resonance.ts).
+ */
+export function pairMarginBand(pair: Pick<ResonancePair, 'frequencyHz' | 'modeBandHz'>, margin: number): [number, number] {
+  return pair.modeBandHz ? [pair.modeBandHz[0] / (1 + margin), pair.modeBandHz[1] / (1 - margin)] : modeMarginBand(pair.frequencyHz, margin)
+}
+
+/** The point of an excitation band nearest a pair's mode (its frequency, or its tolerance band). */
+function nearestExcitationHz(pair: ResonancePair): number {
+  const [lo, hi] = pair.band.hz
+  if (!pair.modeBandHz) return Math.min(Math.max(pair.frequencyHz, lo), hi)
+  const [a, b] = pair.modeBandHz
+  if (b < lo) return lo
+  if (a > hi) return hi
+  return Math.min(Math.max(pair.frequencyHz, Math.max(a, lo)), Math.min(b, hi))
 }
 
 export interface ConflictMark {
@@ -57,13 +81,13 @@ export function interferenceConflictMarks(input: InterferenceChartInput): Confli
   for (const pair of input.resonance) {
     if (pair.status !== 'conflict') continue
     const [lo, hi] = pair.band.hz
-    const nearestHz = Math.min(Math.max(pair.frequencyHz, lo), hi)
+    const nearestHz = nearestExcitationHz(pair)
     if (pair.band.order === null) {
       marks.push({ pair, rpm: null, hz: nearestHz, rpmSpan: null })
       continue
     }
     const order = pair.band.order
-    const [bandLo, bandHi] = modeMarginBand(pair.frequencyHz, input.margin)
+    const [bandLo, bandHi] = pairMarginBand(pair, input.margin)
     const spanLo = Math.max(hzToRpm(lo) / order, hzToRpm(bandLo) / order)
     const spanHi = Math.min(hzToRpm(hi) / order, hzToRpm(bandHi) / order)
     marks.push({ pair, rpm: hzToRpm(nearestHz) / order, hz: nearestHz, rpmSpan: [Math.min(spanLo, spanHi), Math.max(spanLo, spanHi)] })
@@ -107,8 +131,10 @@ export function interferenceChartOption(input: InterferenceChartInput, options: 
   const marginText = `±${figure(100 * input.margin, 3)} %`
   const series: (LineSeriesOption | ScatterSeriesOption)[] = []
 
-  // Natural frequencies: a line and its margin band each.
+  // Natural frequencies: a line and its margin band each (around the tolerance band where the check used it).
   const shownModes = input.modes.filter((m) => !m.rigidBody && checkedFrequency(m) <= hzMax)
+  const checkedBands = new Map<number, readonly [number, number]>()
+  for (const pair of input.resonance) if (pair.modeBandHz) checkedBands.set(pair.mode, pair.modeBandHz)
   series.push({
     type: 'line',
     name: 'Natural frequencies',
@@ -118,8 +144,9 @@ export function interferenceChartOption(input: InterferenceChartInput, options: 
       itemStyle: { color: palette.modeBand },
       label: { show: false },
       data: shownModes.map((m) => {
-        const [lo, hi] = modeMarginBand(checkedFrequency(m), input.margin)
-        return [{ yAxis: lo, name: `Mode ${m.mode} margin band` }, { yAxis: hi }]
+        const modeBandHz = checkedBands.get(m.mode)
+        const [lo, hi] = pairMarginBand({ frequencyHz: checkedFrequency(m), modeBandHz }, input.margin)
+        return [{ yAxis: lo, name: `Mode ${m.mode} margin band${modeBandHz ? ' around its tolerance band' : ''}` }, { yAxis: hi }]
       }),
     },
     markLine: {
@@ -131,6 +158,22 @@ export function interferenceChartOption(input: InterferenceChartInput, options: 
       data: shownModes.map((m) => ({ yAxis: checkedFrequency(m), name: `Mode ${m.mode} · ${figure(checkedFrequency(m), 4)} Hz` })),
     },
   })
+
+  // Tolerance bands: where 90 % of the scattered parts put each mode.
+  if (input.scatter?.length) {
+    const shownBands = input.scatter.filter((b) => shownModes.some((m) => m.mode === b.mode))
+    series.push({
+      type: 'line',
+      name: 'Tolerance bands',
+      data: [],
+      markArea: {
+        silent: !options.interactive,
+        itemStyle: { color: palette.modeLine, opacity: 0.3 },
+        label: { show: false },
+        data: shownBands.map((b) => [{ yAxis: b.p05, name: `Mode ${b.mode} tolerance band (5–95 %): ${figure(b.p05, 4)}–${figure(b.p95, 4)} Hz` }, { yAxis: b.p95 }]),
+      },
+    })
+  }
 
   // Operating speed ranges (shaded) and single speeds (a vertical line).
   const speedAreas: [{ xAxis: number; name: string }, { xAxis: number }][] = []
@@ -249,7 +292,7 @@ export function interferenceChartOption(input: InterferenceChartInput, options: 
         : `${figure(hzToRpm(p.band.hz[0]) / p.band.order, 5)}${p.band.hz[1] !== p.band.hz[0] ? `–${figure(hzToRpm(p.band.hz[1]) / p.band.order, 5)}` : ''} rpm × ${figure(p.band.order, 3)} = ${figure(p.band.hz[0], 4)}${p.band.hz[1] !== p.band.hz[0] ? `–${figure(p.band.hz[1], 4)}` : ''} Hz`
     return [
       `<b>Conflict: mode ${p.mode} and ${escapeHtml(bandName(p.band))}</b>`,
-      `Mode ${p.mode}: ${figure(p.frequencyHz, 4)} Hz`,
+      p.modeBandHz ? `Mode ${p.mode}: ${figure(p.frequencyHz, 4)} Hz, tolerance band ${figure(p.modeBandHz[0], 4)}–${figure(p.modeBandHz[1], 4)} Hz` : `Mode ${p.mode}: ${figure(p.frequencyHz, 4)} Hz`,
       `Excitation: ${escapeHtml(where)}`,
       `Separation ${signedPercent(p.separation)} (margin ${marginText})`,
     ].join('<br>')
@@ -322,7 +365,10 @@ export function interferenceChartOption(input: InterferenceChartInput, options: 
   }
 }
 
-/** Plain-language line for a pair: "Mode 1 at 106 Hz is 6.4 % above Motor twice line frequency (100 Hz)". */
+/**
+ * Plain-language line for a pair: "Mode 1 at 106 Hz is 6.4 % above Motor twice line frequency (100 Hz)";
+ * for a pair checked on a tolerance band: "Mode 1, tolerance band 103.8–109.2 Hz, is 3.8 % above …".
+ */
 export function pairSentence(pair: ResonancePair): string {
   const band: ExcitationBand = pair.band
   const [lo, hi] = band.hz
@@ -330,8 +376,10 @@ export function pairSentence(pair: ResonancePair): string {
     lo === hi ? `${figure(lo, 4)} Hz` : `${figure(lo, 4)}–${figure(hi, 4)} Hz`
   const speed =
     band.order === null ? '' : `, ${figure(hzToRpm(lo) / band.order, 5)}${lo === hi ? '' : `–${figure(hzToRpm(hi) / band.order, 5)}`} rpm`
-  const subject = `Mode ${pair.mode} at ${figure(pair.frequencyHz, 3)} Hz`
-  if (pair.separation === 0) return `${subject} lies inside ${bandName(band)} (${bandText}${speed})`
+  const subject = pair.modeBandHz
+    ? `Mode ${pair.mode}, tolerance band ${figure(pair.modeBandHz[0], 4)}–${figure(pair.modeBandHz[1], 4)} Hz,`
+    : `Mode ${pair.mode} at ${figure(pair.frequencyHz, 3)} Hz`
+  if (pair.separation === 0) return `${subject} ${pair.modeBandHz ? 'overlaps' : 'lies inside'} ${bandName(band)} (${bandText}${speed})`
   const direction = pair.separation > 0 ? 'above' : 'below'
   return `${subject} is ${figure(Math.abs(100 * pair.separation), 2)} % ${direction} ${bandName(band)} (${bandText}${speed})`
 }

@@ -268,6 +268,15 @@ function solveLevel(pencil: BandPencil, modes: number, context: Context, warm?: 
   }
   found.sort((a, b) => a.value - b.value)
   const checked = verifyAndRepair(level, found, rigidBodyModes, elastic, nextEstimate)
+  // Unit mass norm on every level, so that starts interpolated from it stay far from overflow.
+  for (const v of checked.vectors) {
+    const known = context.vectorInfo.get(v)
+    const norm2 = known ? known.massNorm2 : quadraticForm(pencil.mass, v)
+    if (norm2 > 0 && Number.isFinite(norm2)) {
+      scaleVector(v, 1 / Math.sqrt(norm2))
+      if (known) context.vectorInfo.set(v, { massNorm2: 1, largest: known.largest / Math.sqrt(norm2) })
+    }
+  }
   return { ...checked, nextEstimate, rigidBodyModes, rigidVector }
 }
 
@@ -308,6 +317,8 @@ function refineStarts(level: Level, count: number, makeStart: (index: number) =>
           results[b] = { value: step.rayleigh, converged: true, vector: starts[b] }
         } else {
           shifts[b] = step.rayleigh
+          // Inverse iteration can grow a vector by 1e25 a step on small-valued pencils: keep it finite.
+          if (!(step.yMy < 1e100 && step.yMy > 1e-100) && step.yMy > 0 && Number.isFinite(step.yMy)) scaleVector(starts[b], 1 / Math.sqrt(step.yMy))
           still.push(b)
         }
       })
@@ -321,6 +332,10 @@ function refineStarts(level: Level, count: number, makeStart: (index: number) =>
 /** Already-found modes whose eigenvalues lie within 1 % of λ: kept orthogonal to avoid converging twice to one mode. */
 function nearbyVectors(found: RefinedMode[], lambda: number): Float64Array[] {
   return found.filter((f) => Math.abs(f.value - lambda) <= 1e-2 * Math.abs(lambda)).map((f) => f.vector)
+}
+
+function scaleVector(v: Float64Array, s: number): void {
+  for (let i = 0; i < v.length; i++) v[i] *= s
 }
 
 function randomVector(n: number, random: RandomSource): Float64Array {
@@ -612,7 +627,7 @@ function sturmCheckFromCounts(bounds: number[], counts: number[], rigidBodyModes
 function normaliseAndOrient(pencil: BandPencil, v: Float64Array, known?: { massNorm2: number; largest: number }): void {
   if (known) {
     const s = (known.largest < 0 ? -1 : 1) / Math.sqrt(known.massNorm2)
-    for (let i = 0; i < v.length; i++) v[i] *= s
+    if (s !== 1) for (let i = 0; i < v.length; i++) v[i] *= s
     return
   }
   const s = 1 / Math.sqrt(quadraticForm(pencil.mass, v))

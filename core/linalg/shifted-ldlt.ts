@@ -93,7 +93,7 @@ export function hasTinyInteriorPivot(pencil: BandPencil, shift: number, f: Shift
       if (p + d < n) couplings += Math.abs(pencil.stiffness.offDiagonals[d - 1][p] - shift * pencil.mass.offDiagonals[d - 1][p])
       if (p - d >= 0) couplings += Math.abs(pencil.stiffness.offDiagonals[d - 1][p - d] - shift * pencil.mass.offDiagonals[d - 1][p - d])
     }
-    if (Math.abs(f.pivots[p]) < 1e-8 * couplings) return true
+    if (Math.abs(f.pivots[p]) < 1e-12 * couplings) return true
   }
   return false
 }

@@ -195,6 +195,32 @@ describe('structure', () => {
     expect(Array.from(a.vectors[5])).toEqual(Array.from(b.vectors[5]))
   })
 
+  test.each([1000, 100_000])('%i-element uniform fixed–free chain: the mode shapes are the discrete sinusoids to 1e-10', (n) => {
+    // Eigenvectors of a uniform chain of 2-node consistent-mass elements, fixed at node 0 and
+    // free at node n: φ_j(node i) ∝ sin(θ_j i), θ_j = (2j − 1)π/(2n), the modes behind the
+    // discrete dispersion relation (Hughes, The Finite Element Method, from memory). Some modes
+    // have nodes exactly on mesh nodes (2n/(2j − 1) whole), the hardest case for the solver.
+    const k = createBandMatrix(n, 1)
+    const m = createBandMatrix(n, 1)
+    for (let i = 0; i + 1 < n; i++) {
+      k.offDiagonals[0][i] = -1
+      m.offDiagonals[0][i] = 1 / 6
+    }
+    for (let i = 0; i < n; i++) m.rowSums[i] = 1
+    k.rowSums[0] = 1
+    m.rowSums[0] = 5 / 6
+    m.rowSums[n - 1] = 1 / 2
+    const result = lowestModes({ stiffness: k, mass: m }, { modes: 20 })
+    expect(result.sturm.passed).toBe(true)
+    result.vectors.forEach((v, j) => {
+      const theta = ((2 * j + 1) * Math.PI) / (2 * n)
+      const scale = v[n - 1] / Math.sin(theta * n)
+      let error = 0
+      for (let i = 0; i < n; i++) error = Math.max(error, Math.abs(v[i] - scale * Math.sin(theta * (i + 1))))
+      expect(error / Math.abs(scale), `mode ${j + 1}`).toBeLessThan(1e-10)
+    })
+  })
+
   test('multilevel path agrees with the dense solver', () => {
     const pencil = randomPencil(300, 1, 21, true)
     const dense = denseEigenvalues(pencil)
