@@ -152,7 +152,7 @@ export function lowestModes(pencil: BandPencil, options: LowestModesOptions): Lo
     eigenvalues[result.rigidBodyModes + i] = result.values[i]
     vectors.push(result.vectors[i])
   }
-  for (const v of vectors) normaliseAndOrient(pencil, v, context.vectorInfo.get(v))
+  // Elastic modes were normalised on their level; the rigid-body mode is set normalised.
   return {
     eigenvalues,
     vectors,
@@ -269,14 +269,7 @@ function solveLevel(pencil: BandPencil, modes: number, context: Context, warm?: 
   found.sort((a, b) => a.value - b.value)
   const checked = verifyAndRepair(level, found, rigidBodyModes, elastic, nextEstimate)
   // Unit mass norm on every level, so that starts interpolated from it stay far from overflow.
-  for (const v of checked.vectors) {
-    const known = context.vectorInfo.get(v)
-    const norm2 = known ? known.massNorm2 : quadraticForm(pencil.mass, v)
-    if (norm2 > 0 && Number.isFinite(norm2)) {
-      scaleVector(v, 1 / Math.sqrt(norm2))
-      if (known) context.vectorInfo.set(v, { massNorm2: 1, largest: known.largest / Math.sqrt(norm2) })
-    }
-  }
+  for (const v of checked.vectors) normaliseAndOrient(pencil, v, context.vectorInfo.get(v))
   return { ...checked, nextEstimate, rigidBodyModes, rigidVector }
 }
 
