@@ -45,11 +45,14 @@ export function responseChartOption(input: ResponseChartInput, options: Response
   const fMin = points[0]?.frequencyHz ?? 0
   const fMax = points[points.length - 1]?.frequencyHz ?? 1
   const inRange = (f: number) => f >= fMin && f <= fMax
-  const bands = excitationBands(input.excitations).filter((b) => b.hz[1] >= fMin && b.hz[0] <= fMax)
+  // In frequency order, so that neighbouring bands' labels can alternate between two rows.
+  const bands = excitationBands(input.excitations)
+    .filter((b) => b.hz[1] >= fMin && b.hz[0] <= fMax)
+    .sort((a, b) => a.hz[0] - b.hz[0])
   const bandText = (lo: number, hi: number) => (lo === hi ? `${figure(lo, 4)} Hz` : `${figure(lo, 4)}–${figure(hi, 4)} Hz`)
-  // Labels of neighbouring bands alternate between two rows so they do not overwrite each other.
-  const bandLabel = (k: number, text: string) => ({ show: true, position: 'insideTop' as const, distance: 4 + 14 * (k % 2), color: palette.frequencyLine, fontSize: 10, formatter: () => text })
   const shortName = (b: (typeof bands)[number]) => (b.order === null ? bandText(b.hz[0], b.hz[1]) : `×${figure(b.order, 3)}`)
+  // A range is labelled inside the plot's top, a single frequency just above it (a line's inside labels turn with the line).
+  const bandLabel = (k: number, text: string) => ({ show: true, distance: 3 + 13 * (k % 2), color: palette.frequencyLine, fontSize: 10, formatter: () => text })
 
   const series: LineSeriesOption[] = [
     {
@@ -68,7 +71,13 @@ export function responseChartOption(input: ResponseChartInput, options: Response
               animation: false,
               lineStyle: { color: palette.mutedText, type: 'dotted', width: 1.2 },
               label: { show: true, position: 'insideStartTop', color: palette.mutedText, fontSize: 11, formatter: () => 'static' },
-              data: [{ yAxis: toShown(input.staticFlexibility) }],
+              // A line between two points: ECharts does not place a bare numeric yAxis level on a log axis.
+              data: [
+                [
+                  { coord: [fMin, toShown(input.staticFlexibility)] },
+                  { coord: [fMax, toShown(input.staticFlexibility)] },
+                ],
+              ],
             },
           }
         : {}),
@@ -84,7 +93,7 @@ export function responseChartOption(input: ResponseChartInput, options: Response
         data: bands
           .map((b, k) => ({ b, k }))
           .filter(({ b }) => b.hz[1] > b.hz[0])
-          .map(({ b, k }) => [{ xAxis: Math.max(b.hz[0], fMin), name: `${bandName(b)}: ${bandText(b.hz[0], b.hz[1])}`, label: bandLabel(k, shortName(b)) }, { xAxis: Math.min(b.hz[1], fMax) }]),
+          .map(({ b, k }) => [{ xAxis: Math.max(b.hz[0], fMin), name: `${bandName(b)}: ${bandText(b.hz[0], b.hz[1])}`, label: { ...bandLabel(k, shortName(b)), position: 'insideTop' as const } }, { xAxis: Math.min(b.hz[1], fMax) }]),
       },
       markLine: {
         silent: true,
@@ -94,7 +103,7 @@ export function responseChartOption(input: ResponseChartInput, options: Response
         data: bands
           .map((b, k) => ({ b, k }))
           .filter(({ b }) => b.hz[1] === b.hz[0])
-          .map(({ b, k }) => ({ xAxis: b.hz[0], name: `${bandName(b)}: ${bandText(b.hz[0], b.hz[1])}`, label: { ...bandLabel(k, shortName(b)), position: 'insideEndTop' as const } })),
+          .map(({ b, k }) => ({ xAxis: b.hz[0], name: `${bandName(b)}: ${bandText(b.hz[0], b.hz[1])}`, label: { ...bandLabel(k, shortName(b)), position: 'end' as const } })),
       },
     },
     {
@@ -107,15 +116,16 @@ export function responseChartOption(input: ResponseChartInput, options: Response
         symbol: 'none',
         animation: false,
         lineStyle: { color: palette.boundaryLine, type: 'dashed', width: 1 },
-        label: { show: true, position: 'start', color: palette.mutedText, fontSize: 10 },
+        // Along the line, at its foot: clear of the band labels at the top and of the axis labels below.
+        label: { show: true, position: 'insideStartTop', color: palette.mutedText, fontSize: 10 },
         data: input.modes
           .filter((m) => !m.rigidBody && inRange(m.frequencyHz))
-          .map((m) => ({ xAxis: m.frequencyHz, name: `Mode ${m.mode}`, label: { formatter: () => `${m.mode}` } })),
+          .map((m) => ({ xAxis: m.frequencyHz, name: `Mode ${m.mode}`, label: { formatter: () => `mode ${m.mode}` } })),
       },
     },
   ]
 
-  const top = options.title ? 56 : 34
+  const top = options.title ? 62 : 40
   return {
     ...baseOption(options),
     legend: {
@@ -135,7 +145,8 @@ export function responseChartOption(input: ResponseChartInput, options: Response
       nameLocation: 'middle',
       nameGap: 28,
       ...axis,
-      axisLabel: { ...axis.axisLabel, formatter: (v: number) => figure(v, 4) },
+      // The ends of a log axis fall between decades: their labels would crowd the round ones.
+      axisLabel: { ...axis.axisLabel, formatter: (v: number) => figure(v, 4), showMinLabel: !log, showMaxLabel: !log },
     },
     yAxis: {
       type: 'log',

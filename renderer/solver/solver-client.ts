@@ -1,13 +1,25 @@
 /**
  * The window's handle on the solver. With Web Workers (the app, the browser build) every
  * job runs off the interface thread: solves on one worker, where only the newest project
- * matters (older queued solves are dropped, a long one is stopped); each convergence study
- * on a worker of its own, so Cancel can stop it at once; reports and mass comparisons on a
- * third. Without workers (unit tests under happy-dom) the same tasks run in the page.
+ * matters (older queued solves are dropped, a long one is stopped); each convergence study,
+ * tuner search and share of a tolerance scatter on a worker of its own, so Cancel can stop it
+ * at once; reports, mass comparisons, sensitivities and forced responses on a third. Without
+ * workers (unit tests under happy-dom) the same tasks run in the page.
  */
-import type { ConvergenceStudy, Project } from '../../core/index'
+import type { ConvergenceStudy, Project, TuneRequest, TuneResult } from '../../core/index'
+import { tuneParameter } from '../../core/analysis/tuner'
 import type { SolverRequest, SolverResponse, SolverResults } from './solver-protocol'
 import { compareMassesTask, convergenceTask, reportTask, solveTask, type MassComparison, type ReportTaskInput, type SolvedModel } from './solver-tasks'
+import {
+  responseTask,
+  scatterShareTask,
+  sensitivityTask,
+  type ResponseResult,
+  type ResponseTaskRequest,
+  type ScatterShare,
+  type SensitivityTable,
+} from './design-tasks'
+import { joinShares, scatterShares } from './scatter-shares'
 
 /** A job that was replaced by a newer one before it finished (its result would be out of date). */
 export class SolverSuperseded extends Error {
@@ -29,12 +41,46 @@ export interface CancellableJob<T> {
   cancel(): void
 }
 
+export interface ScatterRequest {
+  readonly seed: number
+  readonly samples: number
+  readonly modes: number
+  /** How many workers share the samples (the in-page client runs the shares one after another). */
+  readonly workers: number
+}
+
+/** A whole tolerance scatter: every sample's frequencies in sample order. */
+export interface ScatterOutcome {
+  /** Row-major samples × modes, Hz. */
+  readonly frequencies: Float64Array
+  readonly nominalHz: number[]
+  readonly modes: number
+  readonly samples: number
+  readonly seed: number
+  readonly workers: number
+}
+
 export interface SolverClient {
   solve(project: Project): Promise<SolvedModel>
   compareMasses(project: Project): Promise<MassComparison>
   converge(project: Project, onProgress: (fraction: number) => void): CancellableJob<ConvergenceStudy>
   report(input: ReportTaskInput): Promise<string>
+  sensitivities(project: Project): Promise<SensitivityTable>
+  tune(project: Project, request: TuneRequest): CancellableJob<TuneResult>
+  scatter(project: Project, request: ScatterRequest, onProgress: (fraction: number) => void): CancellableJob<ScatterOutcome>
+  response(project: Project, request: ResponseTaskRequest): Promise<ResponseResult>
   dispose(): void
+}
+
+function scatterOutcome(parts: readonly ScatterShare[], request: ScatterRequest): ScatterOutcome {
+  return {
+    frequencies: joinShares(parts.map((p) => p.frequencies)),
+    nominalHz: parts[0]?.nominalHz ?? [],
+    modes: parts[0]?.modes ?? request.modes,
+    samples: request.samples,
+    seed: request.seed,
+    workers: parts.length,
+  }
 }
 
 /** A solve running longer than this is stopped when a newer project arrives; a shorter one is let finish. */
@@ -111,6 +157,18 @@ export function createWorkerSolverClient(createWorker: () => Worker): SolverClie
   const solves = new WorkerChannel(createWorker)
   const side = new WorkerChannel(createWorker)
   const studies = new Set<WorkerChannel>()
+  // A job on a worker of its own: Cancel stops that worker at once; it is let go when the job ends.
+  const dedicated = <K extends SolverRequest['kind']>(payload: Payload<K>, onProgress?: (fraction: number) => void): CancellableJob<SolverResults[K]> => {
+    const channel = new WorkerChannel(createWorker)
+    studies.add(channel)
+    const result = channel.run<K>(payload, onProgress)
+    const finish = () => {
+      studies.delete(channel)
+      channel.stop(new SolverCancelled())
+    }
+    result.then(finish, finish)
+    return { result, cancel: () => channel.stop(new SolverCancelled()) }
+  }
   let running: { started: number } | null = null
   let queued: { project: Project; resolve(m: SolvedModel): void; reject(e: Error): void } | null = null
 
@@ -149,18 +207,34 @@ export function createWorkerSolverClient(createWorker: () => Worker): SolverClie
       return side.run<'compare-masses'>({ kind: 'compare-masses', project })
     },
     converge(project, onProgress) {
-      const channel = new WorkerChannel(createWorker)
-      studies.add(channel)
-      const result = channel.run<'converge'>({ kind: 'converge', project }, onProgress)
-      const finish = () => {
-        studies.delete(channel)
-        channel.stop(new SolverCancelled())
-      }
-      result.then(finish, finish)
-      return { result, cancel: () => channel.stop(new SolverCancelled()) }
+      return dedicated<'converge'>({ kind: 'converge', project }, onProgress)
     },
     report(input) {
       return side.run<'report'>({ kind: 'report', input })
+    },
+    sensitivities(project) {
+      return side.run<'sensitivities'>({ kind: 'sensitivities', project })
+    },
+    tune(project, request) {
+      return dedicated<'tune'>({ kind: 'tune', project, request })
+    },
+    scatter(project, request, onProgress) {
+      const shares = scatterShares(request.samples, request.workers)
+      const done = shares.map(() => 0)
+      const jobs = shares.map((share, i) =>
+        dedicated<'scatter-share'>({ kind: 'scatter-share', project, run: { seed: request.seed, start: share.start, count: share.count, modes: request.modes } }, (fraction) => {
+          done[i] = fraction * share.count
+          onProgress(done.reduce((a, b) => a + b, 0) / request.samples)
+        }),
+      )
+      const cancel = () => jobs.forEach((job) => job.cancel())
+      const result = Promise.all(jobs.map((job) => job.result)).then((parts) => scatterOutcome(parts, request))
+      // One share failing stops the others: the scatter is incomplete without it.
+      result.catch(cancel)
+      return { result, cancel }
+    },
+    response(project, request) {
+      return side.run<'response'>({ kind: 'response', project, request })
     },
     dispose() {
       solves.stop(new SolverCancelled())
@@ -174,23 +248,51 @@ export function createWorkerSolverClient(createWorker: () => Worker): SolverClie
 /** The same tasks in the page, for environments without Web Workers. */
 export function createInlineSolverClient(): SolverClient {
   const later = <T>(work: () => T) => Promise.resolve().then(work)
+  // Cancel before the job starts stops it; once started it runs to the end (the page has no thread to stop).
+  const cancellableLater = <T>(work: () => T): CancellableJob<T> => {
+    let cancelled = false
+    const result = later(() => {
+      if (cancelled) throw new SolverCancelled()
+      return work()
+    })
+    return {
+      result,
+      cancel: () => {
+        cancelled = true
+      },
+    }
+  }
   return {
     solve: (project) => later(() => solveTask(plainCopy(project))),
     compareMasses: (project) => later(() => compareMassesTask(plainCopy(project))),
-    converge(project, onProgress) {
+    converge: (project, onProgress) => cancellableLater(() => convergenceTask(plainCopy(project), onProgress)),
+    report: (input) => later(() => reportTask(plainCopy(input))),
+    sensitivities: (project) => later(() => sensitivityTask(plainCopy(project))),
+    tune: (project, request) => cancellableLater(() => tuneParameter(plainCopy(project), request)),
+    scatter(project, request, onProgress) {
       let cancelled = false
-      const result = later(() => {
-        if (cancelled) throw new SolverCancelled()
-        return convergenceTask(plainCopy(project), onProgress)
-      })
+      const copy = plainCopy(project)
+      // The same shares as the workers would get, solved one after another.
+      const solveShares = async () => {
+        const parts: ScatterShare[] = []
+        let done = 0
+        for (const share of scatterShares(request.samples, request.workers)) {
+          await Promise.resolve()
+          if (cancelled) throw new SolverCancelled()
+          const shareRun = { seed: request.seed, start: share.start, count: share.count, modes: request.modes }
+          parts.push(scatterShareTask(copy, shareRun, (fraction) => onProgress((done + fraction * share.count) / request.samples)))
+          done += share.count
+        }
+        return scatterOutcome(parts, request)
+      }
       return {
-        result,
+        result: solveShares(),
         cancel: () => {
           cancelled = true
         },
       }
     },
-    report: (input) => later(() => reportTask(plainCopy(input))),
+    response: (project, request) => later(() => responseTask(plainCopy(project), request)),
     dispose() {},
   }
 }

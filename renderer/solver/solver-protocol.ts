@@ -1,18 +1,27 @@
 /** Messages between the window and the solver worker. */
-import type { ConvergenceStudy, Project } from '../../core/index'
+import type { ConvergenceStudy, Project, TuneRequest, TuneResult } from '../../core/index'
 import type { MassComparison, ReportTaskInput, SolvedModel } from './solver-tasks'
+import type { ResponseResult, ResponseTaskRequest, ScatterShare, ScatterShareRun, SensitivityTable } from './design-tasks'
 
 export type SolverRequest =
   | { readonly id: number; readonly kind: 'solve'; readonly project: Project }
   | { readonly id: number; readonly kind: 'compare-masses'; readonly project: Project }
   | { readonly id: number; readonly kind: 'converge'; readonly project: Project }
   | { readonly id: number; readonly kind: 'report'; readonly input: ReportTaskInput }
+  | { readonly id: number; readonly kind: 'sensitivities'; readonly project: Project }
+  | { readonly id: number; readonly kind: 'tune'; readonly project: Project; readonly request: TuneRequest }
+  | { readonly id: number; readonly kind: 'scatter-share'; readonly project: Project; readonly run: ScatterShareRun }
+  | { readonly id: number; readonly kind: 'response'; readonly project: Project; readonly request: ResponseTaskRequest }
 
 export interface SolverResults {
   solve: SolvedModel
   'compare-masses': MassComparison
   converge: ConvergenceStudy
   report: string
+  sensitivities: SensitivityTable
+  tune: TuneResult
+  'scatter-share': ScatterShare
+  response: ResponseResult
 }
 
 export type SolverResponse =

@@ -7,8 +7,9 @@
 import { defineStore } from 'pinia'
 import { computed, ref, shallowRef } from 'vue'
 import type { ConvergenceStudy } from '../../core/analysis/convergence'
-import { SolverCancelled, useSolver, type CancellableJob } from '../solver/solver-client'
+import { useSolver } from '../solver/solver-client'
 import type { MassComparison } from '../solver/solver-tasks'
+import { useCancellableJob } from '../composables/cancellable-job'
 import { useProjectStore } from './project-store'
 
 export const useConvergenceStore = defineStore('convergence', () => {
@@ -16,11 +17,9 @@ export const useConvergenceStore = defineStore('convergence', () => {
   const study = shallowRef<ConvergenceStudy | null>(null)
   const studyText = ref<string | null>(null)
   const progress = ref(0)
-  const running = ref(false)
-  const failure = ref<string | null>(null)
+  const { running, failure, run: runJob, cancel } = useCancellableJob<ConvergenceStudy>()
   const comparison = shallowRef<MassComparison | null>(null)
   const comparisonText = ref<string | null>(null)
-  let job: CancellableJob<ConvergenceStudy> | null = null
 
   const currentText = computed(() => (project.validProject ? JSON.stringify(project.validProject) : null))
   const studyIsCurrent = computed(() => study.value !== null && studyText.value === currentText.value)
@@ -30,36 +29,18 @@ export const useConvergenceStore = defineStore('convergence', () => {
     const model = project.validProject
     const text = currentText.value
     if (!model || text === null) return
-    cancel()
-    running.value = true
     progress.value = 0
-    failure.value = null
-    const thisJob = useSolver().converge(model, (fraction) => {
-      if (job === thisJob) progress.value = fraction
-    })
-    job = thisJob
-    try {
-      const result = await thisJob.result
-      if (job !== thisJob) return
-      study.value = result
-      studyText.value = text
-      progress.value = 1
-    } catch (error) {
-      if (job === thisJob && !(error instanceof SolverCancelled)) failure.value = error instanceof Error ? error.message : String(error)
-    } finally {
-      if (job === thisJob) {
-        job = null
-        running.value = false
-      }
-    }
-  }
-
-  function cancel(): void {
-    if (!job) return
-    const stopping = job
-    job = null
-    running.value = false
-    stopping.cancel()
+    await runJob(
+      (isNewest) =>
+        useSolver().converge(model, (fraction) => {
+          if (isNewest()) progress.value = fraction
+        }),
+      (result) => {
+        study.value = result
+        studyText.value = text
+        progress.value = 1
+      },
+    )
   }
 
   async function compare(): Promise<void> {

@@ -6,7 +6,7 @@
  */
 import { libraryMaterial } from '../../core/model/materials'
 import { meanSectionArea, sectionArea, sectionOuterSize, segmentBoundaries, totalLength } from '../../core/model/geometry'
-import type { EndCondition, Excitation, Material, Project, Section, SectionShape } from '../../core/model/project'
+import type { EndCondition, Excitation, Material, Project, Section, SectionShape, Tolerances } from '../../core/model/project'
 
 /** A value typed in a field: a number, NaN (not a number) or undefined (empty). */
 export type Typed = number | undefined
@@ -283,4 +283,12 @@ export function parseOrders(text: string): number[] {
     .split(/[,;\s]+/)
     .filter((t) => t !== '')
     .map((t) => (/^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(t) ? Number(t) : NaN))
+}
+
+/** One tolerance (a fraction, ±); an emptied field removes it, and the last one removed removes the set. */
+export function setTolerance(project: Project, key: keyof Tolerances, value: Typed): void {
+  const tolerances: Tolerances = project.tolerances ?? {}
+  assign(tolerances, key, value)
+  if (Object.keys(tolerances).length === 0) delete project.tolerances
+  else project.tolerances = tolerances
 }

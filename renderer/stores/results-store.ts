@@ -1,16 +1,20 @@
 /**
  * The modes of the project on screen. Every valid change of the draft is solved again,
  * lightly debounced, in the solver worker; while the draft has problems the last valid
- * results stay up, marked as such. Also the plain-language warnings every screen can reach.
+ * results stay up, marked as such. Also the resonance check on the basis chosen (the exact
+ * frequencies, or the tolerance bands of a scatter of this part) and the plain-language
+ * warnings every screen can reach.
  */
 import { defineStore } from 'pinia'
 import { computed, ref, shallowRef, watch } from 'vue'
 import type { Project } from '../../core/model/project'
-import { pairSentence } from '../../core/charts/interference-chart'
+import { resonancePairs, type ResonancePair } from '../../core/analysis/resonance'
+import { checkedFrequency, pairSentence } from '../../core/charts/interference-chart'
 import { figure } from '../../core/charts/chart-text'
 import { SolverSuperseded, useSolver } from '../solver/solver-client'
 import type { SolvedModel } from '../solver/solver-tasks'
 import { useProjectStore } from './project-store'
+import { useScatterStore } from './scatter-store'
 
 /** Wait this long after the last keystroke before solving. */
 export const SOLVE_DEBOUNCE_MS = 120
@@ -18,17 +22,21 @@ export const SOLVE_DEBOUNCE_MS = 120
 /** A reported frequency further than this from the exact reference asks for a finer mesh. */
 export const MESH_ERROR_NOTE = 0.01
 
+/** What the resonance check rests on: the nominal (exact where known) frequencies, or each mode's tolerance band. */
+export type ResonanceBasis = 'nominal' | 'bands'
+
 export type WarningLevel = 'conflict' | 'problem' | 'note'
 
 export interface ScreenWarning {
   readonly level: WarningLevel
   readonly text: string
   /** The view that shows it. */
-  readonly view: 'part' | 'modes' | 'resonance' | 'convergence'
+  readonly view: 'part' | 'modes' | 'resonance' | 'convergence' | 'design'
 }
 
 export const useResultsStore = defineStore('results', () => {
   const project = useProjectStore()
+  const scatter = useScatterStore()
   const solved = shallowRef<SolvedModel | null>(null)
   const solving = ref(false)
   const failure = ref<string | null>(null)
@@ -78,11 +86,21 @@ export const useResultsStore = defineStore('results', () => {
   })
 
   const firstElastic = computed(() => solved.value?.modes.find((m) => !m.rigidBody) ?? null)
-  const conflicts = computed(() => solved.value?.resonance.filter((p) => p.status === 'conflict') ?? [])
+  /** Tolerance bands of this very part, when the check is asked to use them. */
+  const checkBands = computed(() => (solved.value && scatter.checkWithBands ? scatter.bandsFor(solved.value.project) : null))
+  const resonanceBasis = computed<ResonanceBasis>(() => (checkBands.value ? 'bands' : 'nominal'))
+  /** Every mode–excitation pair on the basis in use. */
+  const resonance = computed<ResonancePair[]>(() => {
+    const s = solved.value
+    if (!s) return []
+    const bands = checkBands.value
+    return bands ? resonancePairs(s.modes.map((m) => ({ ...m, frequencyHz: checkedFrequency(m) })), s.project, bands) : s.resonance
+  })
+  const conflicts = computed(() => resonance.value.filter((p) => p.status === 'conflict'))
   /** The pair with the smallest separation of all, the one to look at first. */
   const closestPair = computed(() => {
-    let best = null as SolvedModel['resonance'][number] | null
-    for (const p of solved.value?.resonance ?? []) if (!best || Math.abs(p.separation) < Math.abs(best.separation)) best = p
+    let best = null as ResonancePair | null
+    for (const p of resonance.value) if (!best || Math.abs(p.separation) < Math.abs(best.separation)) best = p
     return best
   })
 
@@ -102,6 +120,13 @@ export const useResultsStore = defineStore('results', () => {
     // Closest first: the pair most likely to resonate leads the list and the banner.
     const byCloseness = [...conflicts.value].sort((a, b) => Math.abs(a.separation) - Math.abs(b.separation))
     for (const pair of byCloseness) list.push({ level: 'conflict', text: pairSentence(pair), view: 'resonance' })
+    if (scatter.checkWithBands && !checkBands.value) {
+      list.push({
+        level: 'note',
+        text: 'The check was asked to use tolerance bands, but none are current for this part: it uses the nominal frequencies until the scatter is run again.',
+        view: 'design',
+      })
+    }
     if (result.project.excitations.length === 0) {
       list.push({ level: 'note', text: 'No excitations entered: the modes have not been checked against the machines nearby.', view: 'resonance' })
     }
@@ -118,5 +143,5 @@ export const useResultsStore = defineStore('results', () => {
     return list
   })
 
-  return { solved, solving, failure, stale, firstElastic, conflicts, closestPair, warnings, solveCurrent }
+  return { solved, solving, failure, stale, firstElastic, resonance, resonanceBasis, conflicts, closestPair, warnings, solveCurrent }
 })

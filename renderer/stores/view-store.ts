@@ -4,14 +4,23 @@ import { computed, ref, watch } from 'vue'
 import type { ConvergenceAxis } from '../../core/charts/convergence-chart'
 import type { ModeShapeLower } from '../../core/charts/mode-shape-chart'
 
-export type ViewName = 'part' | 'modes' | 'resonance' | 'convergence'
+export type ViewName = 'part' | 'modes' | 'resonance' | 'convergence' | 'design'
 export type ThemePreference = 'system' | 'light' | 'dark'
+/** The panels of the design view: sensitivities with the tuner, tolerance scatter, forced response. */
+export type DesignPanel = 'guide' | 'scatter' | 'response'
 
 export const VIEWS: readonly { name: ViewName; title: string }[] = [
   { name: 'part', title: 'Part' },
   { name: 'modes', title: 'Modes' },
   { name: 'resonance', title: 'Resonance' },
   { name: 'convergence', title: 'Convergence' },
+  { name: 'design', title: 'Design' },
+]
+
+export const DESIGN_PANELS: readonly { name: DesignPanel; title: string }[] = [
+  { name: 'guide', title: 'What moves each mode' },
+  { name: 'scatter', title: 'Tolerance bands' },
+  { name: 'response', title: 'Forced response' },
 ]
 
 const THEME_KEY = 'rodwave.theme'
@@ -47,6 +56,9 @@ export const useViewStore = defineStore('view', () => {
   const convergenceMode = ref<number | null>(null)
   const convergenceAxis = ref<ConvergenceAxis>('elements')
   const conflictsOnly = ref(false)
+  const designPanel = ref<DesignPanel>('guide')
+  /** The mode whose sensitivities are listed (null: the first elastic one). */
+  const sensitivityMode = ref<number | null>(null)
   const warningsOpen = ref(false)
   const cautionsOpen = ref(false)
 
@@ -72,6 +84,8 @@ export const useViewStore = defineStore('view', () => {
     convergenceMode,
     convergenceAxis,
     conflictsOnly,
+    designPanel,
+    sensitivityMode,
     warningsOpen,
     cautionsOpen,
     cycleTheme,

@@ -9,8 +9,24 @@ import { readFile } from 'node:fs/promises'
 import { join } from 'node:path'
 import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, inject, it } from 'vitest'
 import type { Browser, BrowserContext, Page } from 'playwright-core'
-import { analyseProject, convergenceStudy, MODAL_SUMMARY_COLUMNS, modalSummaryCsv, readProjectText, type Project } from '../../core/index'
+import {
+  analyseProject,
+  convergenceStudy,
+  frequencySensitivities,
+  MODAL_SUMMARY_COLUMNS,
+  modalSummaryCsv,
+  readProjectText,
+  scatterFrequencies,
+  scatterQuantiles,
+  tuneParameter,
+  withParameter,
+  type Project,
+} from '../../core/index'
 import { pairSentence } from '../../core/charts/interference-chart'
+import { figure } from '../../core/charts/chart-text'
+import { formatFigure } from '../../core/report/number-format'
+import { rankedSensitivities } from '../../renderer/format/design-text'
+import { responseTask } from '../../renderer/solver/design-tasks'
 import { collectPageErrors, launchChromium, shownDigits, shownNumber } from './browser'
 
 const DEMO_TEXT = await readFile(join(import.meta.dirname, '../../examples/condensate-pump-hanger.rodwave.json'), 'utf8')
@@ -197,6 +213,95 @@ describe('the window in a browser', () => {
   })
 })
 
+describe('design guidance in a browser', () => {
+  beforeEach(async () => {
+    await openApp()
+  })
+  afterEach(async () => {
+    expect(errors, errors.join('\n')).toEqual([])
+    await context?.close()
+  })
+
+  async function openDesign(): Promise<void> {
+    await page.click('[data-testid="view-design"]')
+    await page.waitForSelector('[data-testid="sensitivity-row-1"]', { timeout: 30_000 })
+  }
+
+  it('ranks what moves mode 1 as the engine does, the pipe mass or the first segment’s length near the top', async () => {
+    await openDesign()
+    const shown = await page.locator('[data-testid^="sensitivity-row-"]').evaluateAll((rows) => rows.map((r) => r.getAttribute('data-parameter')))
+    const project = demo()
+    expect(shown).toEqual(rankedSensitivities(frequencySensitivities(project, project.analysis.modes), 1).map((s) => s.parameter))
+    expect(shown.slice(0, 3).some((p) => p === 'masses[1].mass' || p === 'segments[0].length')).toBe(true)
+    await expect(page.locator('[data-testid="design-basis"]').textContent()).resolves.toContain('exact frequencies')
+  })
+
+  it('tunes the pipe mass for separation, applies it, clears the conflicts, and undoes it', async () => {
+    const before = await firstFrequency()
+    await expect.poll(() => page.locator('[data-testid="conflict-banner"]').count()).toBe(1)
+    await openDesign()
+    await page.selectOption('[data-testid="tune-parameter"]', 'masses[1].mass')
+    await page.check('[data-testid="tune-goal-separation"]')
+    await page.click('[data-testid="tune-run"]')
+    await page.waitForSelector('[data-testid="tune-result"]', { timeout: 30_000 })
+    const project = demo()
+    const expected = tuneParameter(project, { parameter: 'masses[1].mass', min: 0.7 * 55, max: 1.3 * 55, modes: project.analysis.modes })
+    await expect(page.locator('[data-testid="tune-value"]').textContent()).resolves.toBe(`${figure(expected.value, 6)} kg`)
+    // The page says when the best value lies on a bound of the range (a wider range might do better).
+    const onBound = [0.7 * 55, 1.3 * 55].some((b) => Math.abs(expected.value - b) <= 1e-9 * b)
+    expect(await page.locator('[data-testid="tune-at-bound"]').count()).toBe(onBound ? 1 : 0)
+    await page.click('[data-testid="tune-accept"]')
+    const after = await frequencyAfterChange(before)
+    const tuned = withParameter(project, { kind: 'mass', index: 1 }, expected.value)
+    expect(shownNumber(after)).toBe(expectedShown(tuned, after))
+    await page.click('[data-testid="view-modes"]')
+    const cell = (await page.textContent('[data-testid="mode-1-hz"]'))!.trim()
+    expect(shownNumber(cell)).toBe(expectedShown(tuned, cell))
+    await expect.poll(() => page.locator('[data-testid="conflict-banner"]').count()).toBe(0)
+    await page.keyboard.press('Control+z')
+    expect(await frequencyAfterChange(after)).toBe(before)
+    await expect.poll(() => page.locator('[data-testid="conflict-banner"]').count()).toBe(1)
+  })
+
+  it('runs a short scatter on the workers and shows the bands in its table, with the modes and on the diagram', async () => {
+    await openDesign()
+    await page.click('[data-testid="design-panel-scatter"]')
+    await page.fill('[data-testid="scatter-samples"]', '500')
+    await page.click('[data-testid="scatter-run"]')
+    await page.waitForSelector('[data-testid="scatter-row-1"]', { timeout: 60_000 })
+    const project = demo()
+    const nominal = analyseProject(project, {}, { withReference: false }).modes.map((m) => m.frequencyHz)
+    const quantiles = scatterQuantiles(scatterFrequencies(project, { seed: 1, start: 0, count: 500, modes: project.analysis.modes }), project.analysis.modes, nominal)
+    for (const q of quantiles) {
+      const cells = (await page.locator(`[data-testid="scatter-row-${q.mode}"] td`).allTextContents()).map((t) => t.trim())
+      expect(cells.slice(1, 5), `mode ${q.mode}`).toEqual([q.nominalHz, q.p05, q.p50, q.p95].map((f) => formatFigure(f, 5)))
+    }
+    await page.click('[data-testid="view-modes"]')
+    await expect(page.locator('[data-testid="mode-1-band"]').textContent()).resolves.toBe(`${formatFigure(quantiles[0].p05, 5)} – ${formatFigure(quantiles[0].p95, 5)}`)
+    await page.click('[data-testid="view-resonance"]')
+    await page.waitForSelector('[data-testid="interference-diagram"] svg')
+    await expect(page.locator('[data-testid="resonance-basis"]').textContent()).resolves.toContain('exact frequency')
+    await page.check('[data-testid="resonance-check-with-bands"]')
+    await expect.poll(() => page.locator('[data-testid="resonance-basis"]').textContent()).toContain('tolerance band')
+    await expect(page.locator('[data-testid="conflict-banner"]').textContent()).resolves.toContain('tolerance band')
+  })
+
+  it('draws the forced response with every excitation band, and gives each band’s amplification', async () => {
+    await openDesign()
+    await page.click('[data-testid="design-panel-response"]')
+    await page.waitForSelector('[data-testid="response-chart"] svg', { timeout: 30_000 })
+    const project = demo()
+    const texts = await page.locator('[data-testid="response-chart"] svg text').allTextContents()
+    for (const label of ['×1', '×2', '×7', '100 Hz', 'mode 1']) expect(texts, label).toContain(label)
+    const highest = Math.max(...analyseProject(project).modes.map((m) => m.frequencyHz))
+    const expected = responseTask(project, { forceAt: 2.91, responseAt: 2.91, fromHz: 0, toHz: 1.3 * highest, points: 400, axis: 'log' })
+    expect(expected.bands).toHaveLength(4)
+    for (const [i, band] of expected.bands.entries()) {
+      await expect(page.locator(`[data-testid="response-amplification-${i + 1}"]`).textContent()).resolves.toBe(formatFigure(band.amplification!, 3))
+    }
+  })
+})
+
 describe('screenshots of the main screens', () => {
   const SIZES = [
     { width: 1280, height: 800 },
@@ -221,6 +326,25 @@ describe('screenshots of the main screens', () => {
           await page.waitForTimeout(1200)
           await page.screenshot({ path: join(OUT, `${view}-${size.width}x${size.height}-${theme}.png`) })
         }
+        await page.click('[data-testid="view-design"]')
+        await page.waitForSelector('[data-testid="sensitivity-row-1"]', { timeout: 30_000 })
+        await page.selectOption('[data-testid="tune-parameter"]', 'masses[1].mass')
+        await page.click('[data-testid="tune-run"]')
+        await page.waitForSelector('[data-testid="tune-result"]', { timeout: 30_000 })
+        await page.mouse.move(0, 0)
+        await page.screenshot({ path: join(OUT, `design-guide-${size.width}x${size.height}-${theme}.png`) })
+        await page.click('[data-testid="design-panel-scatter"]')
+        await page.fill('[data-testid="scatter-samples"]', '500')
+        await page.click('[data-testid="scatter-run"]')
+        await page.waitForSelector('[data-testid="scatter-row-1"]', { timeout: 60_000 })
+        await page.mouse.move(0, 0)
+        await page.screenshot({ path: join(OUT, `design-scatter-${size.width}x${size.height}-${theme}.png`) })
+        await page.click('[data-testid="design-panel-response"]')
+        await page.waitForSelector('[data-testid="response-chart"] svg', { timeout: 15_000 })
+        await page.waitForTimeout(1200)
+        await page.screenshot({ path: join(OUT, `design-response-${size.width}x${size.height}-${theme}.png`) })
+        // The warnings drawer over the convergence view, as before the design view existed.
+        await page.click('[data-testid="view-convergence"]')
         await page.click('[data-testid="warnings-button"]')
         await page.screenshot({ path: join(OUT, `warnings-${size.width}x${size.height}-${theme}.png`) })
       })
