@@ -42,6 +42,9 @@ export interface TuneResult extends TunePoint {
 
 export class TuneError extends Error {}
 
+/** The SI unit of each parameter kind, for messages (parameters are always SI). */
+const SI_UNIT: Partial<Record<string, string>> = { length: 'm', sectionDimension: 'm', area: 'm²', modulus: 'Pa', density: 'kg/m³', mass: 'kg', stiffness: 'N/m' }
+
 const GRID = 40
 
 export function tuneParameter(project: Project, request: TuneRequest): TuneResult {
@@ -81,8 +84,9 @@ export function tuneParameter(project: Project, request: TuneRequest): TuneResul
     const i = values.findIndex((v, j) => j > 0 && Math.sign(v) !== Math.sign(values[j - 1]))
     if (i < 0) {
       const range = values.map((v) => v + target)
+      const unit = SI_UNIT[parameter.quantity] ?? ''
       throw new TuneError(
-        `no value of ${parameter.label} in [${min}, ${max}] puts mode ${mode} on ${target} Hz; over that range it moves between ${Math.min(...range).toPrecision(6)} and ${Math.max(...range).toPrecision(6)} Hz`,
+        `no value of ${parameter.label} between ${min} and ${max} ${unit} puts mode ${mode} on ${target} Hz; over that range it moves between ${Math.min(...range).toPrecision(6)} and ${Math.max(...range).toPrecision(6)} Hz`.replace('  ', ' '),
       )
     }
     const value = brentRoot(offset, grid[i - 1], grid[i], 1e-13)
