@@ -163,6 +163,43 @@ export function interpolateSmooth(map: CoarseningMap, coarse: Float64Array, fine
   return interpolateCubic(map, coarse, fine)
 }
 
+const RATIO_FOUR_WEIGHTS = cubicWeights(-4, 0, 4, 8, 0, 4)
+
+/**
+ * The bulk of the interpolation for the coarsening ratio the solver uses, unrolled; alone in
+ * its function so that the hot loop stays in optimised code.
+ */
+function interpolateUniformRatioFour(c: Int32Array, coarse: Float64Array, fine: Float64Array, from: number, to: number): void {
+  const w = RATIO_FOUR_WEIGHTS
+  const w0 = w[0], w1 = w[1], w2 = w[2], w3 = w[3], w4 = w[4], w5 = w[5] // prettier-ignore
+  const w6 = w[6], w7 = w[7], w8 = w[8], w9 = w[9], w10 = w[10], w11 = w[11] // prettier-ignore
+  for (let I = from; I < to; I++) {
+    const a = c[I]
+    const v0 = coarse[I - 1]
+    const v1 = coarse[I]
+    const v2 = coarse[I + 1]
+    const v3 = coarse[I + 2]
+    fine[a] = v1
+    fine[a + 1] = w0 * v0 + w1 * v1 + w2 * v2 + w3 * v3
+    fine[a + 2] = w4 * v0 + w5 * v1 + w6 * v2 + w7 * v3
+    fine[a + 3] = w8 * v0 + w9 * v1 + w10 * v2 + w11 * v3
+  }
+}
+
+/** Evenly spaced intervals of any spacing, with one set of weights (see interpolateUniformRatioFour). */
+function interpolateUniform(c: Int32Array, coarse: Float64Array, fine: Float64Array, from: number, to: number, weights: Float64Array): void {
+  const inner = weights.length / 4
+  for (let I = from; I < to; I++) {
+    const a = c[I]
+    const v0 = coarse[I - 1]
+    const v1 = coarse[I]
+    const v2 = coarse[I + 1]
+    const v3 = coarse[I + 2]
+    fine[a] = v1
+    for (let j = 0, w = 0; j < inner; j++, w += 4) fine[a + 1 + j] = weights[w] * v0 + weights[w + 1] * v1 + weights[w + 2] * v2 + weights[w + 3] * v3
+  }
+}
+
 /** Lagrange weights of the 4-point stencil t0..t3 at the points a+1..b−1, four per point. */
 function cubicWeights(t0: number, t1: number, t2: number, t3: number, a: number, b: number): Float64Array {
   const weights = new Float64Array(4 * Math.max(b - a - 1, 0))
@@ -205,23 +242,8 @@ function interpolateCubic(map: CoarseningMap, coarse: Float64Array, fine: Float6
     }
   }
   general(0)
-  if (spacing === 4) {
-    // Unrolled for the coarsening ratio the solver uses.
-    const [w0, w1, w2, w3, w4, w5, w6, w7, w8, w9, w10, w11] = cubicWeights(-4, 0, 4, 8, 0, 4)
-    for (let I = 1; I < uniformEnd; I++) {
-      const a = c[I]
-      const v0 = coarse[I - 1]
-      const v1 = coarse[I]
-      const v2 = coarse[I + 1]
-      const v3 = coarse[I + 2]
-      fine[a] = v1
-      fine[a + 1] = w0 * v0 + w1 * v1 + w2 * v2 + w3 * v3
-      fine[a + 2] = w4 * v0 + w5 * v1 + w6 * v2 + w7 * v3
-      fine[a + 3] = w8 * v0 + w9 * v1 + w10 * v2 + w11 * v3
-    }
-  } else {
-    for (let I = 1; I < uniformEnd; I++) general(I)
-  }
+  if (spacing === 4) interpolateUniformRatioFour(c, coarse, fine, 1, uniformEnd)
+  else interpolateUniform(c, coarse, fine, 1, uniformEnd, cubicWeights(-spacing, 0, spacing, 2 * spacing, 0, spacing))
   for (let I = Math.max(uniformEnd, 1); I + 1 < nc; I++) general(I)
   fine[n - 1] = coarse[nc - 1]
   return fine

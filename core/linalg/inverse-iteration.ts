@@ -157,20 +157,50 @@ function sweepOne(pencil: BandPencil, shift: number, x: Float64Array, lw: Float6
 /**
  * Four modes per sweep, written out lane by lane: the four recurrences are independent, so
  * their divisions overlap, and K and M are read once for all four. lw[8p + 2b] = l, lw[8p + 2b + 1] = z/d.
+ * The two sweeps are separate small functions: a hot loop alone in its function stays in
+ * optimised code, where a long function with cold paths after its loop kept falling back.
  */
 function sweepFour(pencil: BandPencil, shifts: number[], xs: Float64Array[], lw: Float64Array): InverseIterationStep[] {
   const { stiffness: k, mass: m } = pencil
-  const n = k.order
-  const kOff = k.offDiagonals[0]
-  const mOff = m.offDiagonals[0]
-  const kRow = k.rowSums
-  const mRow = m.rowSums
-  const [s0, s1, s2, s3] = shifts
-  const [x0, x1, x2, x3] = xs
-  const f0 = pivotFloor(pencil, s0)
-  const f1 = pivotFloor(pencil, s1)
-  const f2 = pivotFloor(pencil, s2)
-  const f3 = pivotFloor(pencil, s3)
+  const floors = shifts.map((s) => pivotFloor(pencil, s))
+  // out: negative-pivot counts 0–3, xᵀMx 4–7, unsafe flags 8–11 (1 = an interior pivot nearly vanished).
+  const forward = new Float64Array(12)
+  forwardFour(k.order, k.offDiagonals[0], m.offDiagonals[0], k.rowSums, m.rowSums, shifts[0], shifts[1], shifts[2], shifts[3], floors[0], floors[1], floors[2], floors[3], xs[0], xs[1], xs[2], xs[3], lw, forward)
+  // Lanes whose LDLᵀ had a vanishing interior pivot are redone with the pivoted solve below.
+  const saved = [0, 1, 2, 3].map((b) => (forward[8 + b] ? Float64Array.from(xs[b]) : null))
+  // out: yᵀKy 0–3, yᵀMy 4–7, largest entry 8–11.
+  const backward = new Float64Array(12)
+  backwardFour(k.order, k.offDiagonals[0], m.offDiagonals[0], k.rowSums, m.rowSums, xs[0], xs[1], xs[2], xs[3], lw, backward)
+  return [0, 1, 2, 3].map((b) => {
+    const negativePivots = forward[b]
+    const x = saved[b]
+    if (x) return pivotedStep(pencil, shifts[b], x, xs[b], negativePivots)
+    return { negativePivots, xMx: forward[4 + b], yMy: backward[4 + b], rayleigh: backward[b] / backward[4 + b], largest: backward[8 + b] }
+  })
+}
+
+function forwardFour(
+  n: number,
+  kOff: Float64Array,
+  mOff: Float64Array,
+  kRow: Float64Array,
+  mRow: Float64Array,
+  s0: number,
+  s1: number,
+  s2: number,
+  s3: number,
+  f0: number,
+  f1: number,
+  f2: number,
+  f3: number,
+  x0: Float64Array,
+  x1: Float64Array,
+  x2: Float64Array,
+  x3: Float64Array,
+  lw: Float64Array,
+  out: Float64Array,
+): void {
+  const nf0 = -f0, nf1 = -f1, nf2 = -f2, nf3 = -f3 // prettier-ignore
   let r0 = kRow[0] - s0 * mRow[0]
   let r1 = kRow[0] - s1 * mRow[0]
   let r2 = kRow[0] - s2 * mRow[0]
@@ -180,7 +210,7 @@ function sweepFour(pencil: BandPencil, shifts: number[], xs: Float64Array[], lw:
   let n0 = 0, n1 = 0, n2 = 0, n3 = 0 // prettier-ignore
   let q0 = 0, q1 = 0, q2 = 0, q3 = 0 // prettier-ignore
   let o0 = 0, o1 = 0, o2 = 0, o3 = 0 // prettier-ignore
-  let u0 = false, u1 = false, u2 = false, u3 = false // prettier-ignore
+  let u0 = 0, u1 = 0, u2 = 0, u3 = 0 // prettier-ignore
   let moPrev = 0
   for (let p = 0; p < n; p++) {
     const last = p === n - 1
@@ -191,14 +221,15 @@ function sweepFour(pencil: BandPencil, shifts: number[], xs: Float64Array[], lw:
     const mrNext = last ? 0 : mRow[p + 1]
     const pNext = last ? p : p + 1
     const pPrev = p === 0 ? p : p - 1
+    const tiny = last ? 0 : TINY_INTERIOR_PIVOT
     const base = 8 * p
     {
       const xp = x0[p]
       const off = ko - s0 * mo
       let pivot = r0 - off
-      if (!(Math.abs(pivot) >= f0)) pivot = -f0
+      if (!(Math.abs(pivot) >= f0)) pivot = nf0
       if (pivot < 0) n0++
-      if (!last && Math.abs(pivot) < TINY_INTERIOR_PIVOT * (Math.abs(off) + Math.abs(o0))) u0 = true
+      if (Math.abs(pivot) < tiny * (Math.abs(off) + Math.abs(o0))) u0 = 1
       o0 = off
       const mx = mr * xp + mo * (x0[pNext] - xp) + moPrev * (x0[pPrev] - xp)
       q0 += xp * mx
@@ -213,9 +244,9 @@ function sweepFour(pencil: BandPencil, shifts: number[], xs: Float64Array[], lw:
       const xp = x1[p]
       const off = ko - s1 * mo
       let pivot = r1 - off
-      if (!(Math.abs(pivot) >= f1)) pivot = -f1
+      if (!(Math.abs(pivot) >= f1)) pivot = nf1
       if (pivot < 0) n1++
-      if (!last && Math.abs(pivot) < TINY_INTERIOR_PIVOT * (Math.abs(off) + Math.abs(o1))) u1 = true
+      if (Math.abs(pivot) < tiny * (Math.abs(off) + Math.abs(o1))) u1 = 1
       o1 = off
       const mx = mr * xp + mo * (x1[pNext] - xp) + moPrev * (x1[pPrev] - xp)
       q1 += xp * mx
@@ -230,9 +261,9 @@ function sweepFour(pencil: BandPencil, shifts: number[], xs: Float64Array[], lw:
       const xp = x2[p]
       const off = ko - s2 * mo
       let pivot = r2 - off
-      if (!(Math.abs(pivot) >= f2)) pivot = -f2
+      if (!(Math.abs(pivot) >= f2)) pivot = nf2
       if (pivot < 0) n2++
-      if (!last && Math.abs(pivot) < TINY_INTERIOR_PIVOT * (Math.abs(off) + Math.abs(o2))) u2 = true
+      if (Math.abs(pivot) < tiny * (Math.abs(off) + Math.abs(o2))) u2 = 1
       o2 = off
       const mx = mr * xp + mo * (x2[pNext] - xp) + moPrev * (x2[pPrev] - xp)
       q2 += xp * mx
@@ -247,9 +278,9 @@ function sweepFour(pencil: BandPencil, shifts: number[], xs: Float64Array[], lw:
       const xp = x3[p]
       const off = ko - s3 * mo
       let pivot = r3 - off
-      if (!(Math.abs(pivot) >= f3)) pivot = -f3
+      if (!(Math.abs(pivot) >= f3)) pivot = nf3
       if (pivot < 0) n3++
-      if (!last && Math.abs(pivot) < TINY_INTERIOR_PIVOT * (Math.abs(off) + Math.abs(o3))) u3 = true
+      if (Math.abs(pivot) < tiny * (Math.abs(off) + Math.abs(o3))) u3 = 1
       o3 = off
       const mx = mr * xp + mo * (x3[pNext] - xp) + moPrev * (x3[pPrev] - xp)
       q3 += xp * mx
@@ -262,9 +293,33 @@ function sweepFour(pencil: BandPencil, shifts: number[], xs: Float64Array[], lw:
     }
     moPrev = mo
   }
-  // Lanes whose LDLᵀ had a vanishing interior pivot are redone with the pivoted solve below.
-  const unsafe = [u0, u1, u2, u3]
-  const saved = unsafe.map((u, b) => (u ? Float64Array.from(xs[b]) : null))
+  out[0] = n0
+  out[1] = n1
+  out[2] = n2
+  out[3] = n3
+  out[4] = q0
+  out[5] = q1
+  out[6] = q2
+  out[7] = q3
+  out[8] = u0
+  out[9] = u1
+  out[10] = u2
+  out[11] = u3
+}
+
+function backwardFour(
+  n: number,
+  kOff: Float64Array,
+  mOff: Float64Array,
+  kRow: Float64Array,
+  mRow: Float64Array,
+  x0: Float64Array,
+  x1: Float64Array,
+  x2: Float64Array,
+  x3: Float64Array,
+  lw: Float64Array,
+  out: Float64Array,
+): void {
   let y0 = 0, y1 = 0, y2 = 0, y3 = 0 // prettier-ignore
   let k0 = 0, k1 = 0, k2 = 0, k3 = 0 // prettier-ignore
   let m0 = 0, m1 = 0, m2 = 0, m3 = 0 // prettier-ignore
@@ -304,16 +359,18 @@ function sweepFour(pencil: BandPencil, shifts: number[], xs: Float64Array[], lw:
     y3 = y
     x3[p] = y
   }
-  const steps: InverseIterationStep[] = [
-    { negativePivots: n0, xMx: q0, yMy: m0, rayleigh: k0 / m0, largest: g0 },
-    { negativePivots: n1, xMx: q1, yMy: m1, rayleigh: k1 / m1, largest: g1 },
-    { negativePivots: n2, xMx: q2, yMy: m2, rayleigh: k2 / m2, largest: g2 },
-    { negativePivots: n3, xMx: q3, yMy: m3, rayleigh: k3 / m3, largest: g3 },
-  ]
-  saved.forEach((x, b) => {
-    if (x) steps[b] = pivotedStep(pencil, shifts[b], x, xs[b], steps[b].negativePivots)
-  })
-  return steps
+  out[0] = k0
+  out[1] = k1
+  out[2] = k2
+  out[3] = k3
+  out[4] = m0
+  out[5] = m1
+  out[6] = m2
+  out[7] = m3
+  out[8] = g0
+  out[9] = g1
+  out[10] = g2
+  out[11] = g3
 }
 
 /** xᵀKx and xᵀMx of several vectors (difference form, as quadraticForm), four per sweep. */

@@ -192,8 +192,9 @@ export function solveFactored(f: ShiftedFactorization, y: Float64Array, x: Float
 
 /**
  * Sturm counts at several shifts: counts[s] = number of eigenvalues of (K, M) strictly
- * below shifts[s]. Tridiagonal pencils take the shifts four per sweep, written out lane by
- * lane so that the independent recurrences overlap in the processor.
+ * below shifts[s]. Tridiagonal pencils take the shifts eight per sweep, written out lane by
+ * lane so that the independent recurrences (each limited by its division) overlap in the
+ * processor; the sweep is alone in its function so that it stays in optimised code.
  */
 export function sturmCounts(pencil: BandPencil, shifts: ArrayLike<number>): number[] {
   const s = shifts.length
@@ -204,56 +205,122 @@ export function sturmCounts(pencil: BandPencil, shifts: ArrayLike<number>): numb
     for (let i = 0; i < s; i++) out.push(factorShifted(pencil, shifts[i], f).negativePivots)
     return out
   }
-  for (let first = 0; first < s; first += 4) {
+  const { stiffness: k, mass: m } = pencil
+  const counts = new Float64Array(8)
+  for (let first = 0; first < s; first += 8) {
     const left = s - first
-    const lanes = [0, 1, 2, 3].map((b) => shifts[first + Math.min(b, left - 1)])
-    out.push(...countFour(pencil, lanes).slice(0, Math.min(4, left)))
+    // Unused lanes repeat the last shift of the group.
+    const lane = Array.from({ length: 8 }, (_, b) => shifts[first + Math.min(b, left - 1)])
+    const floor = lane.map((x) => pivotFloor(pencil, x))
+    countEight(k.order, k.offDiagonals[0], m.offDiagonals[0], k.rowSums, m.rowSums, lane[0], lane[1], lane[2], lane[3], lane[4], lane[5], lane[6], lane[7], floor[0], floor[1], floor[2], floor[3], floor[4], floor[5], floor[6], floor[7], counts)
+    for (let b = 0; b < Math.min(8, left); b++) out.push(counts[b])
   }
   return out
 }
 
-function countFour(pencil: BandPencil, shifts: number[]): number[] {
-  const n = pencil.stiffness.order
-  const kOff = pencil.stiffness.offDiagonals[0]
-  const mOff = pencil.mass.offDiagonals[0]
-  const kRow = pencil.stiffness.rowSums
-  const mRow = pencil.mass.rowSums
-  const [s0, s1, s2, s3] = shifts
-  const f0 = pivotFloor(pencil, s0)
-  const f1 = pivotFloor(pencil, s1)
-  const f2 = pivotFloor(pencil, s2)
-  const f3 = pivotFloor(pencil, s3)
+function countEight(
+  n: number,
+  kOff: Float64Array,
+  mOff: Float64Array,
+  kRow: Float64Array,
+  mRow: Float64Array,
+  s0: number,
+  s1: number,
+  s2: number,
+  s3: number,
+  s4: number,
+  s5: number,
+  s6: number,
+  s7: number,
+  f0: number,
+  f1: number,
+  f2: number,
+  f3: number,
+  f4: number,
+  f5: number,
+  f6: number,
+  f7: number,
+  out: Float64Array,
+): void {
+  const nf0 = -f0
+  const nf1 = -f1
+  const nf2 = -f2
+  const nf3 = -f3
+  const nf4 = -f4
+  const nf5 = -f5
+  const nf6 = -f6
+  const nf7 = -f7
   let r0 = kRow[0] - s0 * mRow[0]
   let r1 = kRow[0] - s1 * mRow[0]
   let r2 = kRow[0] - s2 * mRow[0]
   let r3 = kRow[0] - s3 * mRow[0]
-  let n0 = 0, n1 = 0, n2 = 0, n3 = 0 // prettier-ignore
+  let r4 = kRow[0] - s4 * mRow[0]
+  let r5 = kRow[0] - s5 * mRow[0]
+  let r6 = kRow[0] - s6 * mRow[0]
+  let r7 = kRow[0] - s7 * mRow[0]
+  let n0 = 0
+  let n1 = 0
+  let n2 = 0
+  let n3 = 0
+  let n4 = 0
+  let n5 = 0
+  let n6 = 0
+  let n7 = 0
+  let off: number
+  let pivot: number
   for (let p = 0; p < n; p++) {
     const last = p === n - 1
     const ko = last ? 0 : kOff[p]
     const mo = last ? 0 : mOff[p]
     const kr = last ? 0 : kRow[p + 1]
     const mr = last ? 0 : mRow[p + 1]
-    let off = ko - s0 * mo
-    let pivot = r0 - off
-    if (!(Math.abs(pivot) >= f0)) pivot = -f0
+    off = ko - s0 * mo
+    pivot = r0 - off
+    if (!(Math.abs(pivot) >= f0)) pivot = nf0
     if (pivot < 0) n0++
     r0 = kr - s0 * mr - (off / pivot) * r0
     off = ko - s1 * mo
     pivot = r1 - off
-    if (!(Math.abs(pivot) >= f1)) pivot = -f1
+    if (!(Math.abs(pivot) >= f1)) pivot = nf1
     if (pivot < 0) n1++
     r1 = kr - s1 * mr - (off / pivot) * r1
     off = ko - s2 * mo
     pivot = r2 - off
-    if (!(Math.abs(pivot) >= f2)) pivot = -f2
+    if (!(Math.abs(pivot) >= f2)) pivot = nf2
     if (pivot < 0) n2++
     r2 = kr - s2 * mr - (off / pivot) * r2
     off = ko - s3 * mo
     pivot = r3 - off
-    if (!(Math.abs(pivot) >= f3)) pivot = -f3
+    if (!(Math.abs(pivot) >= f3)) pivot = nf3
     if (pivot < 0) n3++
     r3 = kr - s3 * mr - (off / pivot) * r3
+    off = ko - s4 * mo
+    pivot = r4 - off
+    if (!(Math.abs(pivot) >= f4)) pivot = nf4
+    if (pivot < 0) n4++
+    r4 = kr - s4 * mr - (off / pivot) * r4
+    off = ko - s5 * mo
+    pivot = r5 - off
+    if (!(Math.abs(pivot) >= f5)) pivot = nf5
+    if (pivot < 0) n5++
+    r5 = kr - s5 * mr - (off / pivot) * r5
+    off = ko - s6 * mo
+    pivot = r6 - off
+    if (!(Math.abs(pivot) >= f6)) pivot = nf6
+    if (pivot < 0) n6++
+    r6 = kr - s6 * mr - (off / pivot) * r6
+    off = ko - s7 * mo
+    pivot = r7 - off
+    if (!(Math.abs(pivot) >= f7)) pivot = nf7
+    if (pivot < 0) n7++
+    r7 = kr - s7 * mr - (off / pivot) * r7
   }
-  return [n0, n1, n2, n3]
+  out[0] = n0
+  out[1] = n1
+  out[2] = n2
+  out[3] = n3
+  out[4] = n4
+  out[5] = n5
+  out[6] = n6
+  out[7] = n7
 }

@@ -128,6 +128,7 @@ export function bilinearForm(a: SymmetricBandMatrix, x: Float64Array, y: Float64
  * since |A_ii| ≤ |r_i| + Σ_{j≠i} |A_ij|. Used only to scale tolerances.
  */
 export function bandInfinityNorm(a: SymmetricBandMatrix): number {
+  if (a.halfBandwidth === 1) return tridiagonalInfinityNorm(a.order, a.rowSums, a.offDiagonals[0])
   const n = a.order
   let m = 0
   for (let i = 0; i < n; i++) {
@@ -138,6 +139,18 @@ export function bandInfinityNorm(a: SymmetricBandMatrix): number {
       if (i - d >= 0) s += 2 * Math.abs(band[i - d])
     }
     if (s > m) m = s
+  }
+  return m
+}
+
+function tridiagonalInfinityNorm(n: number, rowSums: Float64Array, off: Float64Array): number {
+  let m = 0
+  let previous = 0
+  for (let i = 0; i < n; i++) {
+    const next = i + 1 < n ? Math.abs(off[i]) : 0
+    const s = Math.abs(rowSums[i]) + 2 * (previous + next)
+    if (s > m) m = s
+    previous = next
   }
   return m
 }
