@@ -13,6 +13,7 @@
 import { allocateFactorization, factorShifted, solveFactored } from '../linalg/shifted-ldlt'
 import type { ModalAnalysis } from './modal-analysis'
 import { materialOf } from '../model/geometry'
+import { elementAt } from '../fe/mesh'
 
 export interface ResponseRequest {
   /** Where the force acts and where the displacement is read, m from the start. */
@@ -41,12 +42,15 @@ export function pointWeights(analysis: ModalAnalysis, x: number): Float64Array {
   const weights = new Float64Array(dofNodes.length)
   const dofOfNode = new Map<number, number>()
   dofNodes.forEach((node, dof) => dofOfNode.set(node, dof))
-  const element = mesh.elements.find((e) => x >= e.x0 - 1e-12 && x <= e.x1 + 1e-12) ?? mesh.elements[mesh.elements.length - 1]
-  const xi = (2 * (x - element.x0)) / (element.x1 - element.x0) - 1
-  const n = element.nodes.length === 2 ? [(1 - xi) / 2, (1 + xi) / 2] : [(xi * (xi - 1)) / 2, 1 - xi * xi, (xi * (xi + 1)) / 2]
-  element.nodes.forEach((node, a) => {
-    const dof = dofOfNode.get(node)
-    if (dof !== undefined) weights[dof] += n[a]
+  const e = elementAt(mesh, x)
+  const first = mesh.order * e
+  const x0 = mesh.x[first]
+  const x1 = mesh.x[first + mesh.order]
+  const xi = Math.min(1, Math.max(-1, (2 * (x - x0)) / (x1 - x0) - 1))
+  const n = mesh.order === 1 ? [(1 - xi) / 2, (1 + xi) / 2] : [(xi * (xi - 1)) / 2, 1 - xi * xi, (xi * (xi + 1)) / 2]
+  n.forEach((value, a) => {
+    const dof = dofOfNode.get(first + a)
+    if (dof !== undefined) weights[dof] += value
   })
   return weights
 }
@@ -158,25 +162,30 @@ export function peakStressPerForce(analysis: ModalAnalysis, forceAt: number, fre
     nodeIm[node] = im[dof]
   })
   let best = { stress: 0, at: 0 }
-  for (const element of mesh.elements) {
-    const E = materialOf(analysis.project, analysis.project.segments[element.segment]).youngsModulus
-    const h = element.x1 - element.x0
+  const moduli = analysis.project.segments.map((s) => materialOf(analysis.project, s).youngsModulus)
+  const order = mesh.order
+  for (let e = 0; e < mesh.elementCount; e++) {
+    const first = order * e
+    const E = moduli[mesh.elementSegment[e]]
+    const x0 = mesh.x[first]
+    const x1 = mesh.x[first + order]
+    const h = x1 - x0
     const ends: [number, number[]][] =
-      element.nodes.length === 2
+      order === 1
         ? [
-            [element.x0, [-1 / h, 1 / h]],
-            [element.x1, [-1 / h, 1 / h]],
+            [x0, [-1 / h, 1 / h]],
+            [x1, [-1 / h, 1 / h]],
           ]
         : [
-            [element.x0, [-3 / h, 4 / h, -1 / h]],
-            [element.x1, [1 / h, -4 / h, 3 / h]],
+            [x0, [-3 / h, 4 / h, -1 / h]],
+            [x1, [1 / h, -4 / h, 3 / h]],
           ]
     for (const [x, derivative] of ends) {
       let sr = 0
       let si = 0
-      element.nodes.forEach((node, a) => {
-        sr += derivative[a] * nodeRe[node]
-        si += derivative[a] * nodeIm[node]
+      derivative.forEach((weight, a) => {
+        sr += weight * nodeRe[first + a]
+        si += weight * nodeIm[first + a]
       })
       const stress = E * Math.hypot(sr, si)
       if (stress > best.stress) best = { stress, at: x }

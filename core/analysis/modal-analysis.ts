@@ -141,7 +141,7 @@ export function analyseProject(project: Project, overrides: AnalysisOverrides = 
     totals: {
       length: totalLength(project.segments),
       mass: model.totalMass,
-      elements: model.mesh.elements.length,
+      elements: model.mesh.elementCount,
       dofs: model.dofNodes.length,
     },
     sturm: solution.sturm,
@@ -171,30 +171,37 @@ export function modeShape(analysis: ModalAnalysis, modeIndex: number): { x: Floa
 export function modeStrain(analysis: ModalAnalysis, modeIndex: number): { x: Float64Array; strain: Float64Array; stress: Float64Array } {
   const { mesh } = analysis.model
   const { displacement } = modeShape(analysis, modeIndex)
-  const count = mesh.elements.length
+  const count = mesh.elementCount
+  const order = mesh.order
   const x = new Float64Array(2 * count)
   const strain = new Float64Array(2 * count)
   const stress = new Float64Array(2 * count)
-  mesh.elements.forEach((element, e) => {
-    const h = element.x1 - element.x0
-    const u = element.nodes.map((n) => displacement[n])
-    const E = materialOf(analysis.project, analysis.project.segments[element.segment]).youngsModulus
+  const moduli = analysis.project.segments.map((s) => materialOf(analysis.project, s).youngsModulus)
+  for (let e = 0; e < count; e++) {
+    const first = order * e
+    const x0 = mesh.x[first]
+    const x1 = mesh.x[first + order]
+    const h = x1 - x0
+    const E = moduli[mesh.elementSegment[e]]
     let start: number
     let end: number
-    if (u.length === 2) {
-      start = end = (u[1] - u[0]) / h
+    if (order === 1) {
+      start = end = (displacement[first + 1] - displacement[first]) / h
     } else {
       // Quadratic shape functions: du/dx at ξ = −1 and ξ = 1 (dN/dξ = ξ − ½, −2ξ, ξ + ½; dx = h/2 dξ).
-      start = ((-1.5 * u[0] + 2 * u[1] - 0.5 * u[2]) * 2) / h
-      end = ((0.5 * u[0] - 2 * u[1] + 1.5 * u[2]) * 2) / h
+      const u0 = displacement[first]
+      const u1 = displacement[first + 1]
+      const u2 = displacement[first + 2]
+      start = ((-1.5 * u0 + 2 * u1 - 0.5 * u2) * 2) / h
+      end = ((0.5 * u0 - 2 * u1 + 1.5 * u2) * 2) / h
     }
-    x[2 * e] = element.x0
-    x[2 * e + 1] = element.x1
+    x[2 * e] = x0
+    x[2 * e + 1] = x1
     strain[2 * e] = start
     strain[2 * e + 1] = end
     stress[2 * e] = E * start
     stress[2 * e + 1] = E * end
-  })
+  }
   return { x, strain, stress }
 }
 

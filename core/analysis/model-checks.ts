@@ -109,9 +109,11 @@ export function modelWarnings(analysis: ModalAnalysis): ModelWarning[] {
   })
   let shortest = Infinity
   let longest = 0
-  for (const e of analysis.model.mesh.elements) {
-    shortest = Math.min(shortest, e.x1 - e.x0)
-    longest = Math.max(longest, e.x1 - e.x0)
+  const { x, order, elementCount } = analysis.model.mesh
+  for (let e = 0; e < elementCount; e++) {
+    const length = x[order * (e + 1)] - x[order * e]
+    shortest = Math.min(shortest, length)
+    longest = Math.max(longest, length)
   }
   if (shortest < 1e-6 * longest) {
     warnings.push({

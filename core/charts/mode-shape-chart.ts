@@ -48,11 +48,11 @@ export function modeShapeChartData(analysis: ModalAnalysis, modeIndices?: readon
   const mesh = analysis.model.mesh
   const nodeCount = mesh.x.length
   const keepNodes = thinned(nodeCount, maxPoints, [...mesh.segmentBoundaryNodes, ...mesh.massNodes, ...mesh.springNodes])
-  const elementCount = mesh.elements.length
+  const elementCount = mesh.elementCount
   const boundaryElements: number[] = []
-  mesh.elements.forEach((e, i) => {
-    if (i === 0 || mesh.elements[i - 1].segment !== e.segment) boundaryElements.push(i - 1, i)
-  })
+  for (let i = 0; i < elementCount; i++) {
+    if (i === 0 || mesh.elementSegment[i - 1] !== mesh.elementSegment[i]) boundaryElements.push(i - 1, i)
+  }
   const keepElements = thinned(elementCount, Math.max(2, Math.floor(maxPoints / 2)), boundaryElements.filter((i) => i >= 0))
   const curves = indices.map((index) => {
     const mode = analysis.modes[index]

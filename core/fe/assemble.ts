@@ -39,23 +39,25 @@ export function assembleModel(project: Project, settings: AssemblySettings): Ass
   const k = createBandMatrix(nodes, bandwidth)
   const m = createBandMatrix(nodes, bandwidth)
   const materials = project.segments.map((segment) => materialOf(project, segment))
-  // Elements of equal length in a constant section share their matrices: compute once, reuse.
-  let cached: { segment: number; length: number; matrices: ReturnType<typeof barElementMatrices> } | null = null
-  for (const element of mesh.elements) {
-    const segment = project.segments[element.segment]
-    const material = materials[element.segment]
-    const length = element.x1 - element.x0
-    let matrices
+  const order = settings.order
+  for (const piece of mesh.pieces) {
+    const segment = project.segments[piece.segment]
+    const material = materials[piece.segment]
     if (segment.section.shape === 'cone') {
-      const { t0, t1 } = element
-      matrices = barElementMatrices(settings.order, length, material.youngsModulus, material.density, (t) => sectionArea(segment.section, t0 + (t1 - t0) * t), settings.mass)
-    } else if (cached && cached.segment === element.segment && Math.abs(cached.length - length) <= 1e-13 * length) {
-      matrices = cached.matrices
+      // A tapered section: each element has its own matrices.
+      const start = mesh.segmentStart[piece.segment]
+      const segmentLength = segment.length
+      for (let e = piece.firstElement; e < piece.firstElement + piece.count; e++) {
+        const t0 = (mesh.x[order * e] - start) / segmentLength
+        const t1 = (mesh.x[order * (e + 1)] - start) / segmentLength
+        const matrices = barElementMatrices(order, piece.length, material.youngsModulus, material.density, (t) => sectionArea(segment.section, t0 + (t1 - t0) * t), settings.mass)
+        addElements(k, m, order, e, 1, matrices.stiffness, matrices.mass)
+      }
     } else {
-      matrices = barElementMatrices(settings.order, length, material.youngsModulus, material.density, { uniformArea: sectionArea(segment.section) }, settings.mass)
-      cached = { segment: element.segment, length, matrices }
+      // Equal elements of a constant section share their matrices.
+      const matrices = barElementMatrices(order, piece.length, material.youngsModulus, material.density, { uniformArea: sectionArea(segment.section) }, settings.mass)
+      addElements(k, m, order, piece.firstElement, piece.count, matrices.stiffness, matrices.mass)
     }
-    addElement(k, m, element.nodes, matrices.stiffness, matrices.mass)
   }
   project.masses.forEach((pm, i) => (m.rowSums[mesh.massNodes[i]] += pm.mass))
   project.springs.forEach((sp, i) => (k.rowSums[mesh.springNodes[i]] += sp.stiffness))
@@ -64,8 +66,10 @@ export function assembleModel(project: Project, settings: AssemblySettings): Ass
   const hasSupport = fixedStart || fixedEnd || project.springs.length > 0
   const first = fixedStart ? 1 : 0
   const last = fixedEnd ? nodes - 2 : nodes - 1
-  const supportFull = hasSupport ? Float64Array.from(m.rowSums) : null
   if (last < first) throw new RangeError('the model has no unknowns')
+  // The support influence is M's full row sums (couplings to the supports included), taken
+  // before the fixed ends are removed.
+  const supportInfluence = hasSupport ? m.rowSums.slice(first, last + 1) : null
   const pencil = { stiffness: removeEnds(k, first, last), mass: removeEnds(m, first, last) }
   const dofNodes = new Int32Array(last - first + 1)
   for (let i = 0; i < dofNodes.length; i++) dofNodes[i] = first + i
@@ -73,49 +77,74 @@ export function assembleModel(project: Project, settings: AssemblySettings): Ass
     mesh,
     pencil,
     dofNodes,
-    supportInfluence: supportFull ? supportFull.slice(first, last + 1) : null,
+    supportInfluence,
     totalMass: totalMass(project),
   }
 }
 
-/** Adds an element's dense matrices: off-diagonals into the band, row sums as ∑_b A_ab. */
-function addElement(k: SymmetricBandMatrix, m: SymmetricBandMatrix, nodes: readonly number[], ke: Float64Array, me: Float64Array): void {
-  const count = nodes.length
-  for (let a = 0; a < count; a++) {
-    let massRow = 0
-    for (let b = 0; b < count; b++) {
-      massRow += me[a * count + b]
-      if (b <= a) continue
-      const d = nodes[b] - nodes[a]
-      const lo = nodes[a]
-      k.offDiagonals[d - 1][lo] += ke[a * count + b]
-      m.offDiagonals[d - 1][lo] += me[a * count + b]
+/**
+ * Adds `count` identical elements, the first at element index `firstElement`: off-diagonals into
+ * the band, row sums as Σ_b A_ab. A stiffness row sums to zero exactly (the shape functions sum
+ * to 1, so their derivatives sum to 0), so only the mass adds to row sums.
+ */
+function addElements(k: SymmetricBandMatrix, m: SymmetricBandMatrix, order: number, firstElement: number, count: number, ke: Float64Array, me: Float64Array): void {
+  const kOff1 = k.offDiagonals[0]
+  const mOff1 = m.offDiagonals[0]
+  const mRow = m.rowSums
+  if (order === 1) {
+    const k01 = ke[1]
+    const m01 = me[1]
+    const row0 = me[0] + me[1]
+    const row1 = me[2] + me[3]
+    for (let e = firstElement; e < firstElement + count; e++) {
+      kOff1[e] += k01
+      mOff1[e] += m01
+      mRow[e] += row0
+      mRow[e + 1] += row1
     }
-    // A stiffness row sums to zero exactly (the shape functions sum to 1, so their derivatives sum to 0).
-    m.rowSums[nodes[a]] += massRow
+    return
+  }
+  const kOff2 = k.offDiagonals[1]
+  const mOff2 = m.offDiagonals[1]
+  // 3 × 3 row-major over the nodes 2e (start), 2e + 1 (middle), 2e + 2 (end).
+  const row0 = me[0] + me[1] + me[2]
+  const row1 = me[3] + me[4] + me[5]
+  const row2 = me[6] + me[7] + me[8]
+  for (let e = firstElement; e < firstElement + count; e++) {
+    const first = 2 * e
+    kOff1[first] += ke[1]
+    kOff1[first + 1] += ke[5]
+    kOff2[first] += ke[2]
+    mOff1[first] += me[1]
+    mOff1[first + 1] += me[5]
+    mOff2[first] += me[2]
+    mRow[first] += row0
+    mRow[first + 1] += row1
+    mRow[first + 2] += row2
   }
 }
 
-/** Keeps unknowns first..last; the couplings to removed end nodes leave the neighbours' row sums. */
+/**
+ * Keeps unknowns first..last (first is 0 or 1, last is n − 1 or n − 2: only end nodes are
+ * fixed); the couplings to a removed end node leave its kept neighbours' row sums. Works in
+ * place and returns views of the kept part: no copy of the arrays.
+ */
 function removeEnds(a: SymmetricBandMatrix, first: number, last: number): SymmetricBandMatrix {
   const n = a.order
   const b = a.halfBandwidth
-  const rowSums = Float64Array.from(a.rowSums)
+  const order = last - first + 1
   for (let d = 1; d <= b; d++) {
     const band = a.offDiagonals[d - 1]
-    for (let i = 0; i + d < n; i++) {
-      const j = i + d
-      const iKept = i >= first && i <= last
-      const jKept = j >= first && j <= last
-      if (iKept && !jKept) rowSums[i] -= band[i]
-      if (jKept && !iKept) rowSums[j] -= band[i]
-    }
+    // Removed start node 0 couples to node d; removed end node n − 1 to node n − 1 − d.
+    if (first === 1 && d >= first && d <= last) a.rowSums[d] -= band[0]
+    if (last === n - 2 && n - 1 - d >= first && n - 1 - d <= last) a.rowSums[n - 1 - d] -= band[n - 1 - d]
+    // Entries coupling a kept unknown to a removed one beyond `last` must not survive in the band.
+    for (let i = Math.max(first, last + 1 - d); i <= last; i++) band[i] = 0
   }
-  const order = last - first + 1
-  const out = createBandMatrix(order, b)
-  out.rowSums.set(rowSums.subarray(first, last + 1))
-  for (let d = 1; d <= b; d++) out.offDiagonals[d - 1].set(a.offDiagonals[d - 1].subarray(first, Math.min(last + 1, n)).subarray(0, order))
-  // Entries coupling a kept unknown to a removed one beyond `last` must not survive in the band.
-  for (let d = 1; d <= b; d++) for (let i = Math.max(0, order - d); i < order; i++) out.offDiagonals[d - 1][i] = 0
-  return out
+  return {
+    order,
+    halfBandwidth: b,
+    offDiagonals: a.offDiagonals.map((band) => band.subarray(first, first + order)),
+    rowSums: a.rowSums.subarray(first, last + 1),
+  }
 }

@@ -17,15 +17,39 @@ export interface MeshElement {
   readonly t1: number
 }
 
+/**
+ * Nodes are numbered along the bar; element e spans nodes order·e … order·(e + 1) (its middle
+ * node between them for 3-node elements), so an element is its index: the mesh stores typed
+ * arrays, not an object per element, which keeps a million-element mesh cheap.
+ */
 export interface Mesh {
   readonly order: ElementOrder
   /** Node coordinates, increasing. */
   readonly x: Float64Array
+  readonly elementCount: number
+  /** Segment of each element. */
+  readonly elementSegment: Int32Array
+  /**
+   * Runs of equal elements: each piece of a segment between attachments is divided into
+   * `count` elements of exactly `length` = (to − from)/count (node coordinates differ from it in
+   * the last bits), starting at element `firstElement`.
+   */
+  readonly pieces: readonly MeshPiece[]
+  /** x of each segment boundary. */
+  readonly segmentStart: readonly number[]
+  /** The elements as objects, built on first use (drawings, small meshes). */
   readonly elements: readonly MeshElement[]
   /** Node index at each segment boundary (segments.length + 1 entries). */
   readonly segmentBoundaryNodes: readonly number[]
   readonly massNodes: readonly number[]
   readonly springNodes: readonly number[]
+}
+
+export interface MeshPiece {
+  readonly segment: number
+  readonly firstElement: number
+  readonly count: number
+  readonly length: number
 }
 
 export interface MeshDensity {
@@ -68,41 +92,78 @@ export function countMeshElements(project: Pick<Project, 'segments' | 'masses' |
 
 export function buildMesh(project: Pick<Project, 'segments' | 'masses' | 'springs'>, density: MeshDensity): Mesh {
   const bounds = segmentBoundaries(project.segments)
-  const xs: number[] = [0]
-  const elements: MeshElement[] = []
-  const segmentBoundaryNodes = [0]
   const plan = meshPlan(project, density)
-  for (let s = 0, piece = 0; s < project.segments.length; s++) {
-    const a = bounds[s]
-    const segmentLength = bounds[s + 1] - a
-    for (; piece < plan.length && plan[piece].segment === s; piece++) {
-      const { from, to, count } = plan[piece]
-      for (let e = 0; e < count; e++) {
-        const x0 = e === 0 ? from : from + ((to - from) * e) / count
-        const x1 = e === count - 1 ? to : from + ((to - from) * (e + 1)) / count
-        const start = xs.length - 1
-        const nodes = [start]
-        if (density.order === 2) {
-          xs.push(0.5 * (x0 + x1))
-          nodes.push(xs.length - 1)
-        }
-        xs.push(x1)
-        nodes.push(xs.length - 1)
-        elements.push({ segment: s, nodes, x0, x1, t0: (x0 - a) / segmentLength, t1: (x1 - a) / segmentLength })
-      }
+  const order = density.order
+  let elementCount = 0
+  for (const piece of plan) elementCount += piece.count
+  const x = new Float64Array(elementCount * order + 1)
+  const elementSegment = new Int32Array(elementCount)
+  const pieces: MeshPiece[] = []
+  const segmentBoundaryNodes = [0]
+  let e = 0
+  for (let s = 0, p = 0; s < project.segments.length; s++) {
+    for (; p < plan.length && plan[p].segment === s; p++) {
+      const { from, to, count } = plan[p]
+      pieces.push({ segment: s, firstElement: e, count, length: (to - from) / count })
+      elementSegment.fill(s, e, e + count)
+      fillNodes(x, order, order * e, from, to, count)
+      e += count
     }
-    segmentBoundaryNodes.push(xs.length - 1)
+    segmentBoundaryNodes.push(order * e)
   }
-  const x = Float64Array.from(xs)
   const nodeAt = (position: number): number => nearestNode(x, position)
+  let elements: MeshElement[] | null = null
   return {
-    order: density.order,
+    order,
     x,
-    elements,
+    elementCount,
+    elementSegment,
+    pieces,
+    segmentStart: bounds,
+    get elements(): readonly MeshElement[] {
+      if (!elements) {
+        elements = Array.from({ length: elementCount }, (_, i) => {
+          const s = elementSegment[i]
+          const x0 = x[order * i]
+          const x1 = x[order * (i + 1)]
+          const segmentLength = bounds[s + 1] - bounds[s]
+          return {
+            segment: s,
+            nodes: order === 1 ? [i, i + 1] : [2 * i, 2 * i + 1, 2 * i + 2],
+            x0,
+            x1,
+            t0: (x0 - bounds[s]) / segmentLength,
+            t1: (x1 - bounds[s]) / segmentLength,
+          }
+        })
+      }
+      return elements
+    },
     segmentBoundaryNodes,
     massNodes: project.masses.map((m) => nodeAt(m.at)),
-    springNodes: project.springs.map((s) => nodeAt(s.at)),
+    springNodes: project.springs.map((sp) => nodeAt(sp.at)),
   }
+}
+
+/** Node coordinates of `count` equal elements from `from` to `to`, starting at node `firstNode`. */
+function fillNodes(x: Float64Array, order: number, firstNode: number, from: number, to: number, count: number): void {
+  const span = to - from
+  const nodes = order * count
+  for (let j = 0; j < nodes; j++) x[firstNode + j] = from + (span * j) / nodes
+  x[firstNode + nodes] = to
+}
+
+/** The element holding a position (binary search over element ends). */
+export function elementAt(mesh: Mesh, position: number): number {
+  const { x, order, elementCount } = mesh
+  let lo = 0
+  let hi = elementCount - 1
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1
+    if (x[order * (mid + 1)] < position) lo = mid + 1
+    else hi = mid
+  }
+  return lo
 }
 
 /** Index of the node nearest to a position (binary search on the sorted coordinates). */

@@ -125,7 +125,15 @@ interface RefinedMode {
 
 /** Modes refined together in one pair of sweeps on tridiagonal levels. */
 const BLOCK_WIDTH = 4
-const COARSENING_RATIO = 4
+
+/**
+ * Coarsening ratio of a level: 4 normally; 16 when even the coarse level is large enough to be
+ * coarsened again, where cubic interpolation over 16 fine intervals still starts each mode well
+ * enough for one step, and skipping a level saves its sweeps.
+ */
+function coarseningRatio(n: number, modes: number): number {
+  return n >= 16 * 16 * minimumCoarseOrder(modes + 1) ? 16 : 4
+}
 
 /** Lowest modes of (K, M); see the file comment for the method. */
 export function lowestModes(pencil: BandPencil, options: LowestModesOptions): LowestModes {
@@ -251,8 +259,8 @@ function solveLevel(pencil: BandPencil, modes: number, context: Context, warm?: 
   if (warm) {
     const guesses = warm.vectors.slice(warm.rigidBodyModes)
     found = refineStarts(level, Math.min(elastic, guesses.length), (j) => Float64Array.from(guesses[j]))
-  } else if (n >= COARSENING_RATIO * minimumCoarseOrder(total + 1)) {
-    const map = coarseningMap(n, COARSENING_RATIO)
+  } else if (n >= 4 * minimumCoarseOrder(total + 1)) {
+    const map = coarseningMap(n, coarseningRatio(n, total))
     const coarse = solveLevel(coarsenPencil(pencil, map), total + 1, context)
     found = refineStarts(level, Math.min(elastic, coarse.vectors.length), (j) => interpolateSmooth(map, coarse.vectors[j], new Float64Array(n)))
     nextEstimate = coarse.values.length > elastic ? coarse.values[elastic] : null
