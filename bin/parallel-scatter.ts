@@ -1,7 +1,7 @@
 /**
- * Tolerance scatter on every core: a pool of worker threads, each solving a contiguous share
- * of the samples. Each sample's random stream depends only on the seed and its index
- * (tolerance-scatter.ts), so the result does not depend on the number of workers.
+ * Tolerance scatter on every core: a pool of worker threads sharing the samples out in chunks.
+ * Each sample's random stream depends only on the seed and its index (tolerance-scatter.ts),
+ * so the result does not depend on the number of workers or on who solved which chunk.
  */
 import { Worker } from 'node:worker_threads'
 import { availableParallelism } from 'node:os'
@@ -45,23 +45,26 @@ export class ScatterPool {
     return this.workers.length
   }
 
-  /** Frequencies of all samples, row-major samples × modes. */
+  /**
+   * Frequencies of all samples, row-major samples × modes. The samples go out in chunks, each
+   * worker taking the next when it finishes one, so a worker slowed by anything else on the
+   * machine does not hold the others up at the end.
+   */
   async run(project: Project, options: { seed: number; samples: number; modes: number }): Promise<Float64Array> {
-    const shares = Math.min(this.workers.length, options.samples)
-    const share = Math.ceil(options.samples / shares)
-    const parts = await Promise.all(
-      Array.from({ length: shares }, (_, w) => {
-        const start = w * share
-        const count = Math.max(0, Math.min(share, options.samples - start))
-        return this.request(this.workers[w], { project, run: { seed: options.seed, start, count, modes: options.modes } })
-      }),
-    )
-    const out = new Float64Array(options.samples * options.modes)
-    let offset = 0
-    for (const part of parts) {
-      out.set(part, offset)
-      offset += part.length
+    const { samples, modes } = options
+    const out = new Float64Array(samples * modes)
+    const chunk = Math.max(25, Math.ceil(samples / (this.workers.length * 8)))
+    let next = 0
+    const drain = async (worker: Worker): Promise<void> => {
+      while (next < samples) {
+        const start = next
+        const count = Math.min(chunk, samples - start)
+        next += count
+        const part = await this.request(worker, { project, run: { seed: options.seed, start, count, modes } })
+        out.set(part, start * modes)
+      }
     }
+    await Promise.all(this.workers.map(drain))
     return out
   }
 

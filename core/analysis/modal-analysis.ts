@@ -71,6 +71,12 @@ export interface AnalyseOptions {
   readonly withReference?: boolean
   /** A previous analysis of a slightly different part on the same mesh: its modes start the solver. */
   readonly warmStart?: ModalAnalysis
+  /**
+   * Residual bound at which a mode's iteration stops (default 1e-11, see lowest-modes.ts). The
+   * frequency is then accurate to about its square, so 1e-6 suffices where only frequencies are
+   * wanted (tolerance scatter) and saves an iteration per mode.
+   */
+  readonly tolerance?: number
 }
 
 /** Solves a validated project. */
@@ -89,7 +95,11 @@ export function analyseProject(project: Project, overrides: AnalysisOverrides = 
     previous && previous.model.dofNodes.length === model.dofNodes.length
       ? { vectors: previous.vectors, rigidBodyModes: previous.modes.filter((m) => m.rigidBody).length }
       : undefined
-  const solution = lowestModes(model.pencil, { modes: settings.modes, ...(warm ? { warmStart: warm } : {}) })
+  const solution = lowestModes(model.pencil, {
+    modes: settings.modes,
+    ...(warm ? { warmStart: warm } : {}),
+    ...(options.tolerance !== undefined ? { tolerance: options.tolerance } : {}),
+  })
   const t2 = nowMs()
   const count = solution.eigenvalues.length
   const reference: ExactReference =

@@ -43,31 +43,72 @@ const TINY_INTERIOR_PIVOT = 1e-12
  * with the energies and largest entry of y. The Sturm count stays the LDLᵀ one (counts are
  * reliable even when a pivot is tiny).
  */
-function pivotedStep(pencil: BandPencil, shift: number, x: Float64Array, y: Float64Array, negativePivots: number): InverseIterationStep {
-  const mx = multiplyBand(pencil.mass, x, new Float64Array(x.length))
+function pivotedStep(pencil: BandPencil, shift: number, x: Float64Array, y: Float64Array, negativePivots: number, scratch?: Float64Array): InverseIterationStep {
+  const n = x.length
+  const mx = scratch && scratch.length >= 4 * n ? scratch.subarray(0, n) : new Float64Array(n)
+  multiplyBand(pencil.mass, x, mx)
   let xMx = 0
-  for (let i = 0; i < x.length; i++) xMx += x[i] * mx[i]
-  solveShiftedPivoted(pencil, shift, mx, y)
+  for (let i = 0; i < n; i++) xMx += x[i] * mx[i]
+  solveShiftedPivoted(pencil, shift, mx, y, scratch && scratch.length >= 4 * n ? scratch.subarray(n, 4 * n) : undefined)
   let largest = 0
-  for (let i = 0; i < y.length; i++) if (Math.abs(y[i]) > Math.abs(largest)) largest = y[i]
+  for (let i = 0; i < n; i++) if (Math.abs(y[i]) > Math.abs(largest)) largest = y[i]
   const yMy = quadraticForm(pencil.mass, y)
   return { negativePivots, xMx, yMy, rayleigh: quadraticForm(pencil.stiffness, y) / yMy, largest, pivoted: true }
 }
 
-/** Interleaved storage of the forward sweep of up to four modes (see sweepFour). */
+/**
+ * Work storage of the tridiagonal sweeps, in one allocation (a typed array costs microseconds
+ * to allocate and free, which dominates on small models solved thousands of times):
+ * lw holds the forward sweep of up to four modes, saved a copy of up to four inputs for the
+ * pivoted redo, pivot the pivoted solve's vectors, forward and backward the sweeps' per-lane results.
+ */
 export interface BlockWork {
   readonly width: number
   readonly lw: Float64Array
+  readonly saved: Float64Array
+  readonly pivot: Float64Array
+  readonly forward: Float64Array
+  readonly backward: Float64Array
+}
+
+/**
+ * One set of block work kept from the last solve of a small model: a tolerance scatter or a
+ * sweep solves the same size thousands of times, and zeroing fresh storage each time showed.
+ */
+let spareWork: { order: number; work: BlockWork } | null = null
+const LARGEST_KEPT_ORDER = 1 << 14
+
+/** Block work for this order: the one handed back by the last solve when it fits, else new. */
+export function borrowBlockWork(order: number): BlockWork {
+  if (spareWork && spareWork.order === order) {
+    const { work } = spareWork
+    spareWork = null
+    return work
+  }
+  return allocateBlockWork(order)
+}
+
+/** Hands block work back for the next solve (kept only for small orders). */
+export function returnBlockWork(order: number, work: BlockWork): void {
+  if (order > 0 && order <= LARGEST_KEPT_ORDER) spareWork = { order, work }
 }
 
 export function allocateBlockWork(order: number): BlockWork {
-  return { width: 4, lw: new Float64Array(8 * order) }
+  const storage = new Float64Array(16 * order + 24)
+  return {
+    width: 4,
+    lw: storage.subarray(0, 8 * order),
+    saved: storage.subarray(8 * order, 12 * order),
+    pivot: storage.subarray(12 * order, 16 * order),
+    forward: storage.subarray(16 * order, 16 * order + 12),
+    backward: storage.subarray(16 * order + 12),
+  }
 }
 
 /**
  * One step for every vector in `vectors` (x in, y out, in place), mode b at shifts[b].
- * Tridiagonal pencils only. Modes go four to a sweep (a group of three is padded by repeating
- * its last mode, which writes identical values twice); one or two left over go alone.
+ * Tridiagonal pencils only. Modes go four to a sweep (a group of two or three is padded by
+ * repeating its last mode, which writes identical values twice); a single mode goes alone.
  */
 export function blockInverseIterationStep(
   pencil: BandPencil,
@@ -81,13 +122,12 @@ export function blockInverseIterationStep(
   let first = 0
   while (first < vectors.length) {
     const left = vectors.length - first
-    if (left >= 3) {
+    if (left >= 2) {
       const lanes = [0, 1, 2, 3].map((b) => first + Math.min(b, left - 1))
-      const results = sweepFour(pencil, lanes.map((i) => shifts[i]), lanes.map((i) => vectors[i]), work.lw)
-      out.push(...results.slice(0, Math.min(4, left)))
+      out.push(...sweepFour(pencil, lanes.map((i) => shifts[i]), lanes.map((i) => vectors[i]), Math.min(4, left), work))
       first += Math.min(4, left)
     } else {
-      out.push(sweepOne(pencil, shifts[first], vectors[first], work.lw))
+      out.push(sweepOne(pencil, shifts[first], vectors[first], work))
       first++
     }
   }
@@ -95,9 +135,10 @@ export function blockInverseIterationStep(
 }
 
 /** Single-mode forward and backward sweeps; lw[2p] = l_p, lw[2p+1] = z_p / d_p. */
-function sweepOne(pencil: BandPencil, shift: number, x: Float64Array, lw: Float64Array): InverseIterationStep {
+function sweepOne(pencil: BandPencil, shift: number, x: Float64Array, work: BlockWork): InverseIterationStep {
   const { stiffness: k, mass: m } = pencil
   const n = k.order
+  const lw = work.lw
   const kOff = k.offDiagonals[0]
   const mOff = m.offDiagonals[0]
   const kRow = k.rowSums
@@ -135,7 +176,11 @@ function sweepOne(pencil: BandPencil, shift: number, x: Float64Array, lw: Float6
     if (!last) rowSum = kRow[p + 1] - shift * mRow[p + 1] - l * rowSum
     moPrev = mo
   }
-  if (unsafe) return pivotedStep(pencil, shift, Float64Array.from(x), x, negative)
+  if (unsafe) {
+    const input = work.saved.subarray(0, n)
+    input.set(x)
+    return pivotedStep(pencil, shift, input, x, negative, work.pivot)
+  }
   let yKy = 0
   let yMy = 0
   let largest = 0
@@ -160,23 +205,31 @@ function sweepOne(pencil: BandPencil, shift: number, x: Float64Array, lw: Float6
  * The two sweeps are separate small functions: a hot loop alone in its function stays in
  * optimised code, where a long function with cold paths after its loop kept falling back.
  */
-function sweepFour(pencil: BandPencil, shifts: number[], xs: Float64Array[], lw: Float64Array): InverseIterationStep[] {
+function sweepFour(pencil: BandPencil, shifts: number[], xs: Float64Array[], used: number, work: BlockWork): InverseIterationStep[] {
   const { stiffness: k, mass: m } = pencil
-  const floors = shifts.map((s) => pivotFloor(pencil, s))
-  // out: negative-pivot counts 0–3, xᵀMx 4–7, unsafe flags 8–11 (1 = an interior pivot nearly vanished).
-  const forward = new Float64Array(12)
-  forwardFour(k.order, k.offDiagonals[0], m.offDiagonals[0], k.rowSums, m.rowSums, shifts[0], shifts[1], shifts[2], shifts[3], floors[0], floors[1], floors[2], floors[3], xs[0], xs[1], xs[2], xs[3], lw, forward)
-  // Lanes whose LDLᵀ had a vanishing interior pivot are redone with the pivoted solve below.
-  const saved = [0, 1, 2, 3].map((b) => (forward[8 + b] ? Float64Array.from(xs[b]) : null))
-  // out: yᵀKy 0–3, yᵀMy 4–7, largest entry 8–11.
-  const backward = new Float64Array(12)
-  backwardFour(k.order, k.offDiagonals[0], m.offDiagonals[0], k.rowSums, m.rowSums, xs[0], xs[1], xs[2], xs[3], lw, backward)
-  return [0, 1, 2, 3].map((b) => {
+  const n = k.order
+  const lw = work.lw
+  // forward: negative-pivot counts 0–3, xᵀMx 4–7, unsafe flags 8–11 (1 = an interior pivot nearly vanished).
+  const forward = work.forward
+  forwardFour(n, k.offDiagonals[0], m.offDiagonals[0], k.rowSums, m.rowSums, shifts[0], shifts[1], shifts[2], shifts[3], pivotFloor(pencil, shifts[0]), pivotFloor(pencil, shifts[1]), pivotFloor(pencil, shifts[2]), pivotFloor(pencil, shifts[3]), xs[0], xs[1], xs[2], xs[3], lw, forward)
+  // Lanes whose LDLᵀ had a vanishing interior pivot are redone with the pivoted solve below,
+  // from a copy of their input (padding lanes, which repeat the last used one, are not).
+  let unsafeLanes = 0
+  for (let b = 0; b < used; b++) {
+    if (!forward[8 + b]) continue
+    unsafeLanes |= 1 << b
+    work.saved.subarray(b * n, (b + 1) * n).set(xs[b])
+  }
+  // backward: yᵀKy 0–3, yᵀMy 4–7, largest entry 8–11.
+  const backward = work.backward
+  backwardFour(n, k.offDiagonals[0], m.offDiagonals[0], k.rowSums, m.rowSums, xs[0], xs[1], xs[2], xs[3], lw, backward)
+  const steps: InverseIterationStep[] = []
+  for (let b = 0; b < used; b++) {
     const negativePivots = forward[b]
-    const x = saved[b]
-    if (x) return pivotedStep(pencil, shifts[b], x, xs[b], negativePivots)
-    return { negativePivots, xMx: forward[4 + b], yMy: backward[4 + b], rayleigh: backward[b] / backward[4 + b], largest: backward[8 + b] }
-  })
+    if (unsafeLanes & (1 << b)) steps.push(pivotedStep(pencil, shifts[b], work.saved.subarray(b * n, (b + 1) * n), xs[b], negativePivots, work.pivot))
+    else steps.push({ negativePivots, xMx: forward[4 + b], yMy: backward[4 + b], rayleigh: backward[b] / backward[4 + b], largest: backward[8 + b] })
+  }
+  return steps
 }
 
 function forwardFour(
@@ -378,22 +431,29 @@ export function blockEnergies(pencil: BandPencil, vectors: Float64Array[]): { xK
   const { stiffness: k, mass: m } = pencil
   if (k.halfBandwidth !== 1) return vectors.map((x) => ({ xKx: quadraticForm(k, x), xMx: quadraticForm(m, x) }))
   const out: { xKx: number; xMx: number }[] = []
+  const energies = new Float64Array(8)
   for (let first = 0; first < vectors.length; first += 4) {
     const left = vectors.length - first
-    const lanes = [0, 1, 2, 3].map((b) => vectors[first + Math.min(b, left - 1)])
-    out.push(...energiesFour(pencil, lanes).slice(0, Math.min(4, left)))
+    const lane = (b: number) => vectors[first + Math.min(b, left - 1)]
+    energiesFour(k.order, k.offDiagonals[0], m.offDiagonals[0], k.rowSums, m.rowSums, lane(0), lane(1), lane(2), lane(3), energies)
+    for (let b = 0; b < Math.min(4, left); b++) out.push({ xKx: energies[b], xMx: energies[4 + b] })
   }
   return out
 }
 
-function energiesFour(pencil: BandPencil, xs: Float64Array[]): { xKx: number; xMx: number }[] {
-  const { stiffness: k, mass: m } = pencil
-  const n = k.order
-  const kOff = k.offDiagonals[0]
-  const mOff = m.offDiagonals[0]
-  const kRow = k.rowSums
-  const mRow = m.rowSums
-  const [x0, x1, x2, x3] = xs
+/** xᵀKx (out 0–3) and xᵀMx (out 4–7) of four vectors in one sweep; alone so that it stays optimised. */
+function energiesFour(
+  n: number,
+  kOff: Float64Array,
+  mOff: Float64Array,
+  kRow: Float64Array,
+  mRow: Float64Array,
+  x0: Float64Array,
+  x1: Float64Array,
+  x2: Float64Array,
+  x3: Float64Array,
+  out: Float64Array,
+): void {
   let k0 = 0, k1 = 0, k2 = 0, k3 = 0 // prettier-ignore
   let m0 = 0, m1 = 0, m2 = 0, m3 = 0 // prettier-ignore
   for (let p = 0; p + 1 < n; p++) {
@@ -420,8 +480,15 @@ function energiesFour(pencil: BandPencil, xs: Float64Array[]): { xKx: number; xM
   }
   const kr = kRow[n - 1]
   const mr = mRow[n - 1]
-  const e = (x: Float64Array, kk: number, mm: number) => ({ xKx: kk + kr * x[n - 1] ** 2, xMx: mm + mr * x[n - 1] ** 2 })
-  return [e(x0, k0, m0), e(x1, k1, m1), e(x2, k2, m2), e(x3, k3, m3)]
+  const l0 = x0[n - 1], l1 = x1[n - 1], l2 = x2[n - 1], l3 = x3[n - 1] // prettier-ignore
+  out[0] = k0 + kr * l0 * l0
+  out[1] = k1 + kr * l1 * l1
+  out[2] = k2 + kr * l2 * l2
+  out[3] = k3 + kr * l3 * l3
+  out[4] = m0 + mr * l0 * l0
+  out[5] = m1 + mr * l1 * l1
+  out[6] = m2 + mr * l2 * l2
+  out[7] = m3 + mr * l3 * l3
 }
 
 /**
@@ -440,7 +507,7 @@ export function inverseIterationStepInPlace(
   const { stiffness: k, mass: m } = pencil
   if (k.halfBandwidth === 1) return blockInverseIterationStep(pencil, [shift], [x], work)[0]
   factorShifted(pencil, shift, f)
-  if (hasTinyInteriorPivot(pencil, shift, f)) return pivotedStep(pencil, shift, Float64Array.from(x), x, f.negativePivots)
+  if (hasTinyInteriorPivot(pencil, shift, f)) return pivotedStep(pencil, shift, x.slice(), x, f.negativePivots)
   multiplyBand(m, x, scratch)
   const xMx = dotProduct(x, scratch)
   solveFactored(f, scratch, x)

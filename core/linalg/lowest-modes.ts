@@ -21,8 +21,9 @@
 import { seededRandom, type RandomSource } from '../random'
 import { coarseningMap, coarsenPencil, interpolateSmooth } from './galerkin-coarsening'
 import {
-  allocateBlockWork,
   blockEnergies,
+  borrowBlockWork,
+  returnBlockWork,
   blockInverseIterationStep,
   inverseIterationStepInPlace,
   type BlockWork,
@@ -226,7 +227,7 @@ function createLevel(pencil: BandPencil, context: Context, rigidVector: Float64A
     locked,
     lockedM: locked.map((v) => multiplyBand(pencil.mass, v, new Float64Array(n))),
     scratch: new Float64Array(pencil.stiffness.halfBandwidth === 1 ? 0 : n),
-    block: allocateBlockWork(pencil.stiffness.halfBandwidth === 1 ? n : 0),
+    block: borrowBlockWork(pencil.stiffness.halfBandwidth === 1 ? n : 0),
     factorization: null,
   }
 }
@@ -258,7 +259,14 @@ function solveLevel(pencil: BandPencil, modes: number, context: Context, warm?: 
   let nextEstimate: number | null = null
   if (warm) {
     const guesses = warm.vectors.slice(warm.rigidBodyModes)
-    found = refineStarts(level, Math.min(elastic, guesses.length), (j) => Float64Array.from(guesses[j]))
+    const count = Math.min(elastic, guesses.length)
+    // One allocation for all the copies: small models are warm-started thousands of times.
+    const storage = new Float64Array(count * n)
+    found = refineStarts(level, count, (j) => {
+      const start = storage.subarray(j * n, (j + 1) * n)
+      start.set(guesses[j])
+      return start
+    })
   } else if (n >= 4 * minimumCoarseOrder(total + 1)) {
     const map = coarseningMap(n, coarseningRatio(n, total))
     const coarse = solveLevel(coarsenPencil(pencil, map), total + 1, context)
@@ -276,6 +284,7 @@ function solveLevel(pencil: BandPencil, modes: number, context: Context, warm?: 
   }
   found.sort((a, b) => a.value - b.value)
   const checked = verifyAndRepair(level, found, rigidBodyModes, elastic, nextEstimate)
+  returnBlockWork(pencil.stiffness.halfBandwidth === 1 ? n : 0, level.block)
   // Unit mass norm on every level, so that starts interpolated from it stay far from overflow.
   for (const v of checked.vectors) normaliseAndOrient(pencil, v, context.vectorInfo.get(v))
   return { ...checked, nextEstimate, rigidBodyModes, rigidVector }
@@ -553,7 +562,7 @@ function verifyAndRepair(
     for (const job of redo) {
       context.repairedModes++
       const bracket = slicer.isolate(job.index, 0.02)
-      const x = job.start ? Float64Array.from(job.start) : randomVector(level.order, context.random)
+      const x = job.start ? job.start.slice() : randomVector(level.order, context.random)
       const start = 0.5 * (bracket.lower + bracket.upper)
       const near = [...accepted.values()].filter((f) => Math.abs(f.value - start) <= 1e-2 * start).map((f) => f.vector)
       accepted.set(job.index, refineMode(level, x, start, bracket, near))

@@ -13,7 +13,9 @@
 import { diagonalEntry } from './symmetric-band-matrix'
 import type { BandPencil } from './shifted-ldlt'
 
-export function solveShiftedPivoted(pencil: BandPencil, shift: number, rhs: Float64Array, out: Float64Array): Float64Array {
+/** `work` (tridiagonal pencils, optional): at least 3n entries of scratch, saving their allocation. */
+export function solveShiftedPivoted(pencil: BandPencil, shift: number, rhs: Float64Array, out: Float64Array, work?: Float64Array): Float64Array {
+  if (pencil.stiffness.halfBandwidth === 1) return solveTridiagonalPivoted(pencil, shift, rhs, out, work)
   const { stiffness: k, mass: m } = pencil
   const n = k.order
   const b = k.halfBandwidth
@@ -80,4 +82,63 @@ export function solveShiftedPivoted(pencil: BandPencil, shift: number, rhs: Floa
     y[i] = s / band[at(i, i)]
   }
   return y
+}
+
+/**
+ * The tridiagonal case in three vectors, as LAPACK's gtsv does it: row i and i + 1 are
+ * interchanged when the subdiagonal entry is the larger, which brings in one second
+ * superdiagonal entry (kept in the freed subdiagonal slot).
+ */
+function solveTridiagonalPivoted(pencil: BandPencil, shift: number, rhs: Float64Array, out: Float64Array, work?: Float64Array): Float64Array {
+  const { stiffness: k, mass: m } = pencil
+  const n = k.order
+  const kOff = k.offDiagonals[0]
+  const mOff = m.offDiagonals[0]
+  const storage = work && work.length >= 3 * n ? work : new Float64Array(3 * n)
+  const d = storage.subarray(0, n)
+  const du = storage.subarray(n, 2 * n)
+  const dl = storage.subarray(2 * n, 3 * n)
+  const kRow = k.rowSums
+  const mRow = m.rowSums
+  let scale = 0
+  let previous = 0
+  for (let i = 0; i < n; i++) {
+    const off = i + 1 < n ? kOff[i] - shift * mOff[i] : 0
+    // Diagonal from the row sum: A_ii = r_i − A_{i,i−1} − A_{i,i+1}.
+    d[i] = kRow[i] - shift * mRow[i] - previous - off
+    du[i] = dl[i] = off
+    previous = off
+    scale = Math.max(scale, Math.abs(d[i]), Math.abs(off))
+  }
+  // A pivot that vanishes exactly becomes ε·‖A‖ (see solveShiftedPivoted).
+  const zeroPivot = Number.EPSILON * scale || Number.MIN_VALUE
+  if (out !== rhs) out.set(rhs)
+  const b = out
+  for (let i = 0; i + 1 < n; i++) {
+    if (Math.abs(d[i]) >= Math.abs(dl[i])) {
+      if (Math.abs(d[i]) < zeroPivot) d[i] = d[i] < 0 ? -zeroPivot : zeroPivot
+      const factor = dl[i] / d[i]
+      d[i + 1] -= factor * du[i]
+      b[i + 1] -= factor * b[i]
+      dl[i] = 0
+    } else {
+      const factor = d[i] / dl[i]
+      d[i] = dl[i]
+      const t = d[i + 1]
+      d[i + 1] = du[i] - factor * t
+      if (i + 2 < n) {
+        dl[i] = du[i + 1]
+        du[i + 1] = -factor * dl[i]
+      } else dl[i] = 0
+      du[i] = t
+      const bi = b[i]
+      b[i] = b[i + 1]
+      b[i + 1] = bi - factor * b[i + 1]
+    }
+  }
+  if (Math.abs(d[n - 1]) < zeroPivot) d[n - 1] = d[n - 1] < 0 ? -zeroPivot : zeroPivot
+  b[n - 1] /= d[n - 1]
+  if (n > 1) b[n - 2] = (b[n - 2] - du[n - 2] * b[n - 1]) / d[n - 2]
+  for (let i = n - 3; i >= 0; i--) b[i] = (b[i] - du[i] * b[i + 1] - dl[i] * b[i + 2]) / d[i]
+  return b
 }

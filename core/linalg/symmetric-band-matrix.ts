@@ -22,9 +22,11 @@ export interface SymmetricBandMatrix {
 }
 
 export function createBandMatrix(order: number, halfBandwidth: number): SymmetricBandMatrix {
+  // One allocation, viewed as the bands and the row sums.
+  const storage = new Float64Array((halfBandwidth + 1) * order)
   const offDiagonals: Float64Array[] = []
-  for (let d = 1; d <= halfBandwidth; d++) offDiagonals.push(new Float64Array(order))
-  return { order, halfBandwidth, offDiagonals, rowSums: new Float64Array(order) }
+  for (let d = 1; d <= halfBandwidth; d++) offDiagonals.push(storage.subarray((d - 1) * order, d * order))
+  return { order, halfBandwidth, offDiagonals, rowSums: storage.subarray(halfBandwidth * order) }
 }
 
 /** A[i][i], recovered from the row sum. */
