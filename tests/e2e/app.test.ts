@@ -5,7 +5,8 @@
  * a check of correctness. Each test also asserts that the page logged no error (a CSP
  * violation or a failed request would show there).
  */
-import { readFile } from 'node:fs/promises'
+import { mkdir, readFile } from 'node:fs/promises'
+import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, inject, it } from 'vitest'
 import type { Browser, BrowserContext, Page } from 'playwright-core'
@@ -307,7 +308,9 @@ describe('screenshots of the main screens', () => {
     { width: 1280, height: 800 },
     { width: 1920, height: 1080 },
   ]
-  const OUT = join(import.meta.dirname, '../../assets/screenshots')
+  // A test run leaves the committed pictures alone; `npm run screenshots` refreshes them.
+  const OUT = process.env.RODWAVE_SCREENSHOT_DIR ?? join(tmpdir(), 'rodwave-screenshots')
+  beforeAll(() => mkdir(OUT, { recursive: true }))
 
   afterEach(async () => {
     expect(errors, errors.join('\n')).toEqual([])
