@@ -8,6 +8,21 @@ import { isAppUrl } from './app-origin'
 
 export const PDF_EXPORT_PARTITION = 'rodwave-pdf-export'
 
+/** The page settings every Rodwave window shares, in one place so that no window drifts from them. */
+const LOCKED_DOWN = {
+  contextIsolation: true,
+  sandbox: true,
+  nodeIntegration: false,
+  nodeIntegrationInWorker: false,
+  nodeIntegrationInSubFrames: false,
+  webviewTag: false,
+  webSecurity: true,
+  allowRunningInsecureContent: false,
+  experimentalFeatures: false,
+  navigateOnDragDrop: false,
+  spellcheck: false,
+} as const satisfies NonNullable<BrowserWindowConstructorOptions['webPreferences']>
+
 export interface MainWindowSettings {
   readonly preloadPath: string
   readonly iconPath?: string
@@ -26,18 +41,8 @@ export function mainWindowOptions(settings: MainWindowSettings): BrowserWindowCo
     ...(settings.iconPath === undefined ? {} : { icon: settings.iconPath }),
     webPreferences: {
       preload: settings.preloadPath,
-      contextIsolation: true,
-      sandbox: true,
-      nodeIntegration: false,
-      nodeIntegrationInWorker: false,
-      nodeIntegrationInSubFrames: false,
-      webviewTag: false,
-      webSecurity: true,
-      allowRunningInsecureContent: false,
-      experimentalFeatures: false,
-      navigateOnDragDrop: false,
+      ...LOCKED_DOWN,
       safeDialogs: true,
-      spellcheck: false,
     },
   }
 }
@@ -51,17 +56,7 @@ export function pdfWindowOptions(): BrowserWindowConstructorOptions {
     webPreferences: {
       partition: PDF_EXPORT_PARTITION,
       javascript: false,
-      contextIsolation: true,
-      sandbox: true,
-      nodeIntegration: false,
-      nodeIntegrationInWorker: false,
-      nodeIntegrationInSubFrames: false,
-      webviewTag: false,
-      webSecurity: true,
-      allowRunningInsecureContent: false,
-      experimentalFeatures: false,
-      navigateOnDragDrop: false,
-      spellcheck: false,
+      ...LOCKED_DOWN,
     },
   }
 }
