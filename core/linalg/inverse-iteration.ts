@@ -45,11 +45,13 @@ const TINY_INTERIOR_PIVOT = 1e-12
  */
 function pivotedStep(pencil: BandPencil, shift: number, x: Float64Array, y: Float64Array, negativePivots: number, scratch?: Float64Array): InverseIterationStep {
   const n = x.length
-  const mx = scratch && scratch.length >= 4 * n ? scratch.subarray(0, n) : new Float64Array(n)
+  // scratch (4n): M x, then the pivoted solve's three vectors.
+  const work = scratch && scratch.length >= 4 * n ? scratch : new Float64Array(4 * n)
+  const mx = work.subarray(0, n)
   multiplyBand(pencil.mass, x, mx)
   let xMx = 0
   for (let i = 0; i < n; i++) xMx += x[i] * mx[i]
-  solveShiftedPivoted(pencil, shift, mx, y, scratch && scratch.length >= 4 * n ? scratch.subarray(n, 4 * n) : undefined)
+  solveShiftedPivoted(pencil, shift, mx, y, work.subarray(n))
   let largest = 0
   for (let i = 0; i < n; i++) if (Math.abs(y[i]) > Math.abs(largest)) largest = y[i]
   const yMy = quadraticForm(pencil.mass, y)
