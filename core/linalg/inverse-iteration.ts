@@ -12,7 +12,7 @@
  * The backward sweep also accumulates yᵀKy and yᵀMy in the difference (energy) form,
  * so the Rayleigh quotient of y costs no extra pass.
  */
-import { factorShifted, hasTinyInteriorPivot, pivotFloor, solveFactored, type BandPencil, type ShiftedFactorization } from './shifted-ldlt'
+import { factorShifted, hasTinyInteriorPivot, pivotFloor, solveFactored, stiffnessForm, type BandPencil, type ShiftedFactorization } from './shifted-ldlt'
 import { solveShiftedPivoted } from './pivoted-band-solve'
 import { multiplyBand, quadraticForm } from './symmetric-band-matrix'
 
@@ -55,7 +55,7 @@ function pivotedStep(pencil: BandPencil, shift: number, x: Float64Array, y: Floa
   let largest = 0
   for (let i = 0; i < n; i++) if (Math.abs(y[i]) > Math.abs(largest)) largest = y[i]
   const yMy = quadraticForm(pencil.mass, y)
-  return { negativePivots, xMx, yMy, rayleigh: quadraticForm(pencil.stiffness, y) / yMy, largest, pivoted: true }
+  return { negativePivots, xMx, yMy, rayleigh: stiffnessForm(pencil, y) / yMy, largest, pivoted: true }
 }
 
 /**
@@ -431,7 +431,7 @@ function backwardFour(
 /** xᵀKx and xᵀMx of several vectors (difference form, as quadraticForm), four per sweep. */
 export function blockEnergies(pencil: BandPencil, vectors: Float64Array[]): { xKx: number; xMx: number }[] {
   const { stiffness: k, mass: m } = pencil
-  if (k.halfBandwidth !== 1) return vectors.map((x) => ({ xKx: quadraticForm(k, x), xMx: quadraticForm(m, x) }))
+  if (k.halfBandwidth !== 1 || pencil.beamForms) return vectors.map((x) => ({ xKx: stiffnessForm(pencil, x), xMx: quadraticForm(m, x) }))
   const out: { xKx: number; xMx: number }[] = []
   const energies = new Float64Array(8)
   for (let first = 0; first < vectors.length; first += 4) {
@@ -514,7 +514,7 @@ export function inverseIterationStepInPlace(
   const xMx = dotProduct(x, scratch)
   solveFactored(f, scratch, x)
   const yMy = quadraticForm(m, x)
-  return { negativePivots: f.negativePivots, xMx, yMy, rayleigh: quadraticForm(k, x) / yMy, largest: NaN }
+  return { negativePivots: f.negativePivots, xMx, yMy, rayleigh: stiffnessForm(pencil, x) / yMy, largest: NaN }
 }
 
 function dotProduct(a: Float64Array, b: Float64Array): number {

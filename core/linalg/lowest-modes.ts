@@ -17,9 +17,13 @@
  *    found again by bisection on counts plus safeguarded Rayleigh quotient iteration.
  * A free–free chain (all stiffness row sums zero) has one rigid-body mode, λ = 0 with a
  * constant shape; it is set exactly and the elastic modes are kept M-orthogonal to it.
+ * A beam (two unknowns per node, `layout`) is coarsened by Hermite interpolation instead
+ * (beam-coarsening.ts), and its rigid-body motions are given by the layout.
  */
 import { seededRandom, type RandomSource } from '../random'
 import { coarseningMap, coarsenPencil, interpolateSmooth } from './galerkin-coarsening'
+import { beamCoarsening, coarsenBeamPencil, prolongateBeam, rigidMotionVectors, type BeamLayout } from './beam-coarsening'
+import { coarsenBeamForms } from './beam-energy'
 import {
   blockEnergies,
   borrowBlockWork,
@@ -32,6 +36,7 @@ import {
   allocateFactorization,
   factorShifted,
   pencilNorms,
+  stiffnessForm,
   sturmCounts,
   type BandPencil,
   type ShiftedFactorization,
@@ -52,6 +57,8 @@ export interface LowestModesOptions {
    * decides what is accepted, so a poor start costs time, never correctness.
    */
   readonly warmStart?: { readonly vectors: readonly Float64Array[]; readonly rigidBodyModes: number }
+  /** A beam's unknowns (deflection and scaled rotation per node); absent for a chain of one unknown per node. */
+  readonly layout?: BeamLayout
 }
 
 export interface SturmCheck {
@@ -93,7 +100,7 @@ interface LevelResult {
   /** An upper estimate of the next elastic eigenvalue, when known. */
   readonly nextEstimate: number | null
   readonly rigidBodyModes: number
-  readonly rigidVector: Float64Array | null
+  readonly rigidVectors: Float64Array[]
   readonly sturm: SturmCheck
   readonly converged: boolean
 }
@@ -124,6 +131,9 @@ interface RefinedMode {
   vector: Float64Array
 }
 
+/** Relative change of a Rayleigh quotient between two steps below which it has converged (energy-form pencils). */
+const STALLED_QUOTIENT = 1e-13
+
 /** Modes refined together in one pair of sweeps on tridiagonal levels. */
 const BLOCK_WIDTH = 4
 
@@ -153,10 +163,9 @@ export function lowestModes(pencil: BandPencil, options: LowestModesOptions): Lo
   }
   const warm = options.warmStart
   const usable = warm && warm.vectors.length > warm.rigidBodyModes && warm.vectors.every((v) => v.length === n) ? warm : undefined
-  const result = solveLevel(pencil, Math.min(options.modes, n), context, usable)
+  const result = solveLevel(pencil, Math.min(options.modes, n), context, usable, options.layout)
   const eigenvalues = new Float64Array(result.rigidBodyModes + result.values.length)
-  const vectors: Float64Array[] = []
-  if (result.rigidVector) vectors.push(result.rigidVector)
+  const vectors: Float64Array[] = [...result.rigidVectors]
   for (let i = 0; i < result.values.length; i++) {
     eigenvalues[result.rigidBodyModes + i] = result.values[i]
     vectors.push(result.vectors[i])
@@ -217,9 +226,9 @@ function hasRigidBodyMode(pencil: BandPencil): boolean {
   return true
 }
 
-function createLevel(pencil: BandPencil, context: Context, rigidVector: Float64Array | null): Level {
+function createLevel(pencil: BandPencil, context: Context, rigidVectors: Float64Array[]): Level {
   const n = pencil.stiffness.order
-  const locked = rigidVector ? [rigidVector] : []
+  const locked = rigidVectors
   return {
     pencil,
     order: n,
@@ -237,24 +246,42 @@ function factorizationOf(level: Level): ShiftedFactorization {
   return level.factorization
 }
 
-function solveLevel(pencil: BandPencil, modes: number, context: Context, warm?: LowestModesOptions['warmStart']): LevelResult {
-  context.levels++
+/** M-orthonormal rigid-body vectors of a level: the constant of a free chain, or a beam's free rigid motions. */
+function rigidBodyVectors(pencil: BandPencil, layout: BeamLayout | undefined): Float64Array[] {
   const n = pencil.stiffness.order
-  const rigidBodyModes = hasRigidBodyMode(pencil) ? 1 : 0
-  const total = Math.min(modes, n)
-  const elastic = total - rigidBodyModes
-  let rigidVector: Float64Array | null = null
-  if (rigidBodyModes) {
+  if (!layout) {
+    if (!hasRigidBodyMode(pencil)) return []
     // M·1 = row sums of M, so 1ᵀM1 is their sum.
     let totalMass = 0
     for (const r of pencil.mass.rowSums) totalMass += r
-    rigidVector = new Float64Array(n).fill(1 / Math.sqrt(totalMass))
+    return [new Float64Array(n).fill(1 / Math.sqrt(totalMass))]
   }
+  // Gram–Schmidt in the M inner product.
+  const out: Float64Array[] = []
+  for (const v of rigidMotionVectors(layout)) {
+    for (const u of out) {
+      const c = bilinearForm(pencil.mass, u, v)
+      for (let i = 0; i < n; i++) v[i] -= c * u[i]
+    }
+    const norm = Math.sqrt(quadraticForm(pencil.mass, v))
+    for (let i = 0; i < n; i++) v[i] /= norm
+    out.push(v)
+  }
+  return out
+}
+
+function solveLevel(pencil: BandPencil, modes: number, context: Context, warm?: LowestModesOptions['warmStart'], layout?: BeamLayout): LevelResult {
+  context.levels++
+  const n = pencil.stiffness.order
+  const rigidVectors = rigidBodyVectors(pencil, layout)
+  const rigidBodyModes = rigidVectors.length
+  const total = Math.min(modes, n)
+  const elastic = total - rigidBodyModes
   if (elastic <= 0) {
-    const sturm = checkLowestEigenvalues(pencil, rigidBodyModes ? [0] : [])
-    return { values: [], vectors: [], nextEstimate: null, rigidBodyModes, rigidVector, sturm, converged: true }
+    const sturm = checkLowestEigenvalues(pencil, new Array<number>(rigidBodyModes).fill(0))
+    return { values: [], vectors: [], nextEstimate: null, rigidBodyModes, rigidVectors, sturm, converged: true }
   }
-  const level = createLevel(pencil, context, rigidVector)
+  const level = createLevel(pencil, context, rigidVectors)
   let found: RefinedMode[]
   let nextEstimate: number | null = null
   if (warm) {
@@ -267,6 +294,12 @@ function solveLevel(pencil: BandPencil, modes: number, context: Context, warm?: 
       start.set(guesses[j])
       return start
     })
+  } else if (layout && n >= 4 * minimumCoarseOrder(total + 1)) {
+    const map = beamCoarsening(layout, coarseningRatio(n, total))
+    const coarsePencil = { ...coarsenBeamPencil(pencil, map), ...(pencil.beamForms ? { beamForms: coarsenBeamForms(pencil.beamForms, map) } : {}) }
+    const coarse = solveLevel(coarsePencil, total + 1, context, undefined, map.coarse)
+    found = refineStarts(level, Math.min(elastic, coarse.vectors.length), (j) => prolongateBeam(map, coarse.vectors[j], new Float64Array(n)))
+    nextEstimate = coarse.values.length > elastic ? coarse.values[elastic] : null
   } else if (n >= 4 * minimumCoarseOrder(total + 1)) {
     const map = coarseningMap(n, coarseningRatio(n, total))
     const coarse = solveLevel(coarsenPencil(pencil, map), total + 1, context)
@@ -287,7 +320,7 @@ function solveLevel(pencil: BandPencil, modes: number, context: Context, warm?: 
   returnBlockWork(pencil.stiffness.halfBandwidth === 1 ? n : 0, level.block)
   // Unit mass norm on every level, so that starts interpolated from it stay far from overflow.
   for (const v of checked.vectors) normaliseAndOrient(pencil, v, context.vectorInfo.get(v))
-  return { ...checked, nextEstimate, rigidBodyModes, rigidVector }
+  return { ...checked, nextEstimate, rigidBodyModes, rigidVectors }
 }
 
 /**
@@ -305,7 +338,7 @@ function refineStarts(level: Level, count: number, makeStart: (index: number) =>
     const energies = blockEnergies(pencil, starts)
     const shifts = energies.map((e) => e.xKx / e.xMx)
     if (!blockable) {
-      starts.forEach((x, b) => found.push(refineMode(level, x, shifts[b], null, nearbyVectors(found, shifts[b]))))
+      starts.forEach((x, b) => found.push(refineMode(level, x, shifts[b], null, nearbyVectors(found, shifts[b]), true)))
       continue
     }
     const results: (RefinedMode | null)[] = starts.map(() => null)
@@ -334,7 +367,7 @@ function refineStarts(level: Level, count: number, makeStart: (index: number) =>
       })
       active = still
     }
-    results.forEach((r, b) => found.push(r ?? refineMode(level, starts[b], shifts[b], null, nearbyVectors(found, shifts[b]))))
+    results.forEach((r, b) => found.push(r ?? refineMode(level, starts[b], shifts[b], null, nearbyVectors(found, shifts[b]), true)))
   }
   return found
 }
@@ -382,8 +415,9 @@ function splitBracket(lower: number, upper: number): number {
  * of y/‖y‖_M at σ. With a bracket, every factorisation's Sturm count also tightens it, and a
  * quotient that leaves it is replaced by bisection. Iterates are not normalised (only
  * ratios matter). `near` are found modes (and the level's locked ones) kept M-orthogonal.
+ * `startIsQuotient`: the start value is x's own Rayleigh quotient (not a bracket's midpoint).
  */
-function refineMode(level: Level, x: Float64Array, startValue: number, bracket: Bracket | null, near: Float64Array[]): RefinedMode {
+function refineMode(level: Level, x: Float64Array, startValue: number, bracket: Bracket | null, near: Float64Array[], startIsQuotient = false): RefinedMode {
   const { pencil, context } = level
   const tol = context.tolerance
   const keep = [...level.locked, ...near]
@@ -394,6 +428,8 @@ function refineMode(level: Level, x: Float64Array, startValue: number, bracket: 
   let value = startValue
   let converged = false
   let previousBound = Infinity
+  // The start's own Rayleigh quotient counts as the first of the quotients compared below.
+  let previousRho = startIsQuotient ? startValue : NaN
   let massNorm2 = NaN
   let largest = NaN
   const maxIterations = bracket ? 80 : 10
@@ -413,7 +449,7 @@ function refineMode(level: Level, x: Float64Array, startValue: number, bracket: 
     if (keep.length) {
       orthogonalise(level, x, keep, keepM)
       massNorm2 = quadraticForm(pencil.mass, x)
-      rho = quadraticForm(pencil.stiffness, x) / massNorm2
+      rho = stiffnessForm(pencil, x) / massNorm2
       largest = NaN
     }
     if (!(massNorm2 > 0 && Number.isFinite(massNorm2) && Number.isFinite(rho))) break
@@ -437,6 +473,13 @@ function refineMode(level: Level, x: Float64Array, startValue: number, bracket: 
       converged = true
       break
     }
+    // With an energy form the quotient is accurate where the bound, which rests on the assembled
+    // K, stalls at its round-off (about ε‖K‖): a quotient that no longer moves has converged.
+    if (identified && pencil.beamForms && Math.abs(rho - previousRho) <= STALLED_QUOTIENT * Math.abs(rho)) {
+      converged = true
+      break
+    }
+    previousRho = rho
     previousBound = bound
     if (bracket && !(rho > bracket.lower && rho < bracket.upper)) sigma = splitBracket(bracket.lower, bracket.upper)
     else sigma = rho
@@ -576,7 +619,7 @@ function verifyAndRepair(
   const sturm =
     redo.length === 0 && m === elastic
       ? sturmCheckFromCounts(bounds, counts, rigidBodyModes)
-      : checkLowestEigenvalues(pencil, rigidBodyModes ? [0, ...finalValues] : finalValues, top)
+      : checkLowestEigenvalues(pencil, [...new Array<number>(rigidBodyModes).fill(0), ...finalValues], top)
   return { values: finalValues, vectors: finalVectors, sturm, converged }
 }
 
@@ -596,10 +639,11 @@ function refineClusters(level: Level, values: number[], vectors: Float64Array[])
     while (last + 1 < values.length && values[last + 1] - values[last] <= CLUSTER_GAP * Math.abs(values[last + 1])) last++
     if (last > first) {
       const members = vectors.slice(first, last + 1)
-      const gram = (matrix: typeof pencil.stiffness) => members.map((u) => members.map((v) => bilinearForm(matrix, u, v)))
+      const stiffnessGram = members.map((u) => members.map((v) => stiffnessForm(pencil, u, v)))
+      const massGram = members.map((u) => members.map((v) => bilinearForm(pencil.mass, u, v)))
       let ritz: ReturnType<typeof smallGeneralizedEigen>
       try {
-        ritz = smallGeneralizedEigen(gram(pencil.stiffness), gram(pencil.mass))
+        ritz = smallGeneralizedEigen(stiffnessGram, massGram)
       } catch {
         // Dependent vectors (the same mode found twice) cannot be separated by projection;
         // the Sturm check that follows judges them.

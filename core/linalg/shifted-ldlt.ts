@@ -9,11 +9,23 @@
  * recovers each pivot as D_p = r_p − Σ_{j>p} A_pj. For a stiffness matrix at σ = 0
  * every term is then positive and nothing cancels.
  */
-import { bandInfinityNorm, type SymmetricBandMatrix } from './symmetric-band-matrix'
+import { bandInfinityNorm, bilinearForm, quadraticForm, type SymmetricBandMatrix } from './symmetric-band-matrix'
+import { beamFormsEnergy, type BeamForms } from './beam-energy'
 
 export interface BandPencil {
   readonly stiffness: SymmetricBandMatrix
   readonly mass: SymmetricBandMatrix
+  /**
+   * A beam's K in strain form (beam-energy.ts): xᵀKx summed element by element from small
+   * strains, where the assembled K would subtract nearly equal numbers. Rayleigh quotients use it.
+   */
+  readonly beamForms?: BeamForms
+}
+
+/** xᵀKy (xᵀKx without y) in the pencil's most accurate form. */
+export function stiffnessForm(pencil: BandPencil, x: Float64Array, y?: Float64Array): number {
+  if (pencil.beamForms) return beamFormsEnergy(pencil.beamForms, x, y)
+  return y ? bilinearForm(pencil.stiffness, x, y) : quadraticForm(pencil.stiffness, x)
 }
 
 /** Pivots and multipliers: multipliers[d - 1][p] = L[p + d][p]. */
@@ -76,7 +88,7 @@ export function factorShifted(pencil: BandPencil, shift: number, f: ShiftedFacto
   const { stiffness: k } = pencil
   if (k.order !== f.order || k.halfBandwidth !== f.halfBandwidth) throw new RangeError('factorisation storage does not fit the pencil')
   f.shift = shift
-  f.negativePivots = k.halfBandwidth === 1 ? factorTridiagonal(pencil, shift, f) : factorBanded(pencil, shift, f)
+  f.negativePivots = k.halfBandwidth === 1 ? factorTridiagonal(pencil, shift, f) : k.halfBandwidth === 3 ? factorBandThree(pencil, shift, f, true) : factorBanded(pencil, shift, f)
   return f
 }
 
@@ -165,6 +177,62 @@ function factorBanded(pencil: BandPencil, shift: number, f: ShiftedFactorization
   return negative
 }
 
+/**
+ * The elimination of factorBanded written out for half-bandwidth 3 (a beam's two unknowns per
+ * node), with the rows it updates held in local variables: pivot p changes only rows p + 1 …
+ * p + 3. With `store` false only the Sturm count is wanted and nothing is written.
+ */
+function factorBandThree(pencil: BandPencil, shift: number, f: ShiftedFactorization, store: boolean): number {
+  const n = f.order
+  const { stiffness: k, mass: m } = pencil
+  const k1 = k.offDiagonals[0], k2 = k.offDiagonals[1], k3 = k.offDiagonals[2] // prettier-ignore
+  const m1 = m.offDiagonals[0], m2 = m.offDiagonals[1], m3 = m.offDiagonals[2] // prettier-ignore
+  const kr = k.rowSums
+  const mr = m.rowSums
+  const pivots = f.pivots
+  const l1s = f.multipliers[0], l2s = f.multipliers[1], l3s = f.multipliers[2] // prettier-ignore
+  const floor = pivotFloor(pencil, shift)
+  const at = (kb: Float64Array, mb: Float64Array, i: number) => (i < n ? kb[i] - shift * mb[i] : 0)
+  // Row p's row sum and upper entries, then rows p + 1 … p + 3 as far as they are updated.
+  let r0 = at(kr, mr, 0), r1 = at(kr, mr, 1), r2 = at(kr, mr, 2), r3 = at(kr, mr, 3) // prettier-ignore
+  let a01 = at(k1, m1, 0), a02 = at(k2, m2, 0), a03 = at(k3, m3, 0) // prettier-ignore
+  let a12 = at(k1, m1, 1), a13 = at(k2, m2, 1) // prettier-ignore
+  let a23 = at(k1, m1, 2)
+  let negative = 0
+  for (let p = 0; p < n; p++) {
+    let pivot = r0 - a01 - a02 - a03
+    if (!(Math.abs(pivot) >= floor)) pivot = -floor
+    if (pivot < 0) negative++
+    const l1 = a01 / pivot
+    const l2 = a02 / pivot
+    const l3 = a03 / pivot
+    if (store) {
+      pivots[p] = pivot
+      l1s[p] = l1
+      l2s[p] = l2
+      l3s[p] = l3
+    }
+    r1 -= l1 * r0
+    a12 -= l1 * a02
+    a13 -= l1 * a03
+    r2 -= l2 * r0
+    a23 -= l2 * a03
+    r3 -= l3 * r0
+    // Slide the window by one row.
+    r0 = r1
+    a01 = a12
+    a02 = a13
+    a03 = p + 4 < n ? k3[p + 1] - shift * m3[p + 1] : 0
+    r1 = r2
+    a12 = a23
+    a13 = p + 4 < n ? k2[p + 2] - shift * m2[p + 2] : 0
+    r2 = r3
+    a23 = p + 4 < n ? k1[p + 3] - shift * m1[p + 3] : 0
+    r3 = p + 4 < n ? kr[p + 4] - shift * mr[p + 4] : 0
+  }
+  return negative
+}
+
 /** Solves (K − σM) x = y with a factorisation from factorShifted; x may alias y. */
 export function solveFactored(f: ShiftedFactorization, y: Float64Array, x: Float64Array): Float64Array {
   const n = f.order
@@ -178,6 +246,7 @@ export function solveFactored(f: ShiftedFactorization, y: Float64Array, x: Float
     for (let p = n - 2; p >= 0; p--) x[p] = x[p] / pivots[p] - l[p] * x[p + 1]
     return x
   }
+  if (b === 3) return solveBandThree(f, x)
   for (let p = 0; p < n; p++) {
     const xp = x[p]
     for (let d = 1; d <= b && p + d < n; d++) x[p + d] -= f.multipliers[d - 1][p] * xp
@@ -186,6 +255,35 @@ export function solveFactored(f: ShiftedFactorization, y: Float64Array, x: Float
     let s = x[p] / pivots[p]
     for (let d = 1; d <= b && p + d < n; d++) s -= f.multipliers[d - 1][p] * x[p + d]
     x[p] = s
+  }
+  return x
+}
+
+/** solveFactored for half-bandwidth 3, the sweeps' recent values in local variables (multipliers past the end are 0). */
+function solveBandThree(f: ShiftedFactorization, x: Float64Array): Float64Array {
+  const n = f.order
+  const pivots = f.pivots
+  const l1 = f.multipliers[0], l2 = f.multipliers[1], l3 = f.multipliers[2] // prettier-ignore
+  // Forward: z_p = x_p − l1[p−1] z_{p−1} − l2[p−2] z_{p−2} − l3[p−3] z_{p−3}.
+  let z1 = 0, z2 = 0, z3 = 0 // prettier-ignore
+  for (let p = 0; p < n; p++) {
+    let z = x[p]
+    if (p >= 1) z -= l1[p - 1] * z1
+    if (p >= 2) z -= l2[p - 2] * z2
+    if (p >= 3) z -= l3[p - 3] * z3
+    x[p] = z
+    z3 = z2
+    z2 = z1
+    z1 = z
+  }
+  // Backward: y_p = z_p / D_p − l1[p] y_{p+1} − l2[p] y_{p+2} − l3[p] y_{p+3}.
+  let y1 = 0, y2 = 0, y3 = 0 // prettier-ignore
+  for (let p = n - 1; p >= 0; p--) {
+    const y = x[p] / pivots[p] - l1[p] * y1 - l2[p] * y2 - l3[p] * y3
+    x[p] = y
+    y3 = y2
+    y2 = y1
+    y1 = y
   }
   return x
 }
@@ -200,6 +298,11 @@ export function sturmCounts(pencil: BandPencil, shifts: ArrayLike<number>): numb
   const s = shifts.length
   if (s === 0) return []
   const out: number[] = []
+  if (pencil.stiffness.halfBandwidth === 3) {
+    const f = allocateFactorization(pencil.stiffness.order, 3)
+    for (let i = 0; i < s; i++) out.push(factorBandThree(pencil, shifts[i], f, false))
+    return out
+  }
   if (pencil.stiffness.halfBandwidth !== 1) {
     const f = allocateFactorization(pencil.stiffness.order, pencil.stiffness.halfBandwidth)
     for (let i = 0; i < s; i++) out.push(factorShifted(pencil, shifts[i], f).negativePivots)

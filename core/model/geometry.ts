@@ -48,7 +48,7 @@ export function resolveMaterial(project: Pick<Project, 'materials'>, id: string)
   const own = project.materials.find((m) => m.id === id)
   if (own) return own
   const lib = libraryMaterial(id)
-  return lib ? { id: lib.id, name: lib.name, youngsModulus: lib.youngsModulus, density: lib.density } : undefined
+  return lib ? { id: lib.id, name: lib.name, youngsModulus: lib.youngsModulus, density: lib.density, poissonRatio: lib.poissonRatio } : undefined
 }
 
 export function materialOf(project: Pick<Project, 'materials'>, segment: Segment): Material {
