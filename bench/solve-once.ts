@@ -12,7 +12,7 @@ process.stdout.write(
     assembleMs: analysis.timing.assembleMs,
     solveMs: analysis.timing.solveMs,
     f1: analysis.modes[0].frequencyHz,
-    sturmPassed: analysis.sturm.passed,
+    sturmPassed: analysis.families[0].sturm.passed,
     maxRssMiB: process.resourceUsage().maxRSS / 1024,
   }),
 )

@@ -123,11 +123,7 @@ const scatter: Command = {
     } finally {
       await pool.close()
     }
-    const quantiles = scatterQuantiles(
-      frequencies,
-      modes,
-      nominal.modes.map((m) => m.frequencyHz),
-    )
+    const quantiles = scatterQuantiles(frequencies, nominal.modes)
     if (values.json) {
       writeJson(io, { samples, seed, modes: quantiles })
       return 0
@@ -164,7 +160,7 @@ const response: Command = {
       if (x < 0 || x > length) throw new UsageError(`--${name} must lie on the bar, between 0 and ${length} m`)
     }
     if (fromHz < 0 || toHz < fromHz) throw new UsageError('--from and --to must satisfy 0 ≤ from ≤ to')
-    const analysis = analyseProject(project, overrides, { withReference: false })
+    const analysis = analyseProject(project, overrides, { withReference: false }).families[0]
     const result = forcedResponse(analysis, { forceAt, responseAt, fromHz, toHz, points })
     if (values.json) {
       writeJson(io, {

@@ -8,8 +8,9 @@
  * solution is known and serves as a check where one is.
  */
 import type { ElementOrder, MassMatrixKind, Project } from '../model/project'
-import { exactReference } from '../exact/reference'
-import { analyseProject } from './modal-analysis'
+import { familyReference } from '../exact/family-reference'
+import { analysedFamilies, type Family, type FamilyKey } from '../model/families'
+import { analyseFamily, effectiveSettings } from './modal-analysis'
 
 export interface ConvergencePoint {
   readonly elementsPerSegment: number
@@ -30,9 +31,11 @@ export interface ConvergenceSeries {
 }
 
 export interface ConvergenceStudy {
+  /** The family studied. */
+  readonly family: Family
   readonly modes: number
   readonly referenceHz: number[]
-  readonly referenceMethod: 'exact' | null
+  readonly referenceMethod: 'exact' | 'extrapolated' | null
   readonly series: ConvergenceSeries[]
 }
 
@@ -46,6 +49,8 @@ export interface ConvergenceOptions {
   readonly maxDofs?: number
   /** Called after each solve with the fraction done; return false to stop early. */
   readonly onProgress?: (fraction: number) => boolean | void
+  /** The family studied (default: the project's first). Bending has one element (Hermite cubics), so `orders` does not apply to it. */
+  readonly family?: FamilyKey
 }
 
 /** Relative errors below this are round-off, not discretisation error. */
@@ -56,10 +61,14 @@ export const DEFAULT_DENSITIES = [1, 2, 4, 8, 16, 32, 64, 128, 256, 512, 1024]
 export function convergenceStudy(project: Project, options: ConvergenceOptions = {}): ConvergenceStudy {
   const modes = options.modes ?? project.analysis.modes
   const densities = options.densities ?? DEFAULT_DENSITIES
-  const orders = options.orders ?? [1, 2]
+  const families = analysedFamilies(project)
+  const family = families.find((f) => f.key === options.family) ?? families[0]
+  if (!family) throw new RangeError(`the project does not analyse ${options.family ?? 'any motion'}`)
+  const bending = family.motion === 'bending'
+  const orders: readonly ElementOrder[] = bending ? [1] : (options.orders ?? [1, 2])
   const masses = options.masses ?? ['consistent', 'lumped', 'mixed']
   const maxDofs = options.maxDofs ?? 200_000
-  const reference = exactReference(project, modes)
+  const reference = familyReference(project, family, effectiveSettings(project, { modes }), modes)
   const series: ConvergenceSeries[] = []
   const total = orders.length * masses.length * densities.length
   let done = 0
@@ -70,22 +79,23 @@ export function convergenceStudy(project: Project, options: ConvergenceOptions =
       for (const elementsPerSegment of densities) {
         done++
         if (stopped) continue
-        const estimate = (project.segments.length * elementsPerSegment + project.masses.length + project.springs.length) * elementOrder
+        const estimate = (project.segments.length * elementsPerSegment + project.masses.length + project.springs.length) * (bending ? 2 : elementOrder)
         if (estimate > maxDofs) continue
-        const analysis = analyseProject(project, { elementOrder, mass, elementsPerSegment, modes }, { withReference: false })
+        const settings = effectiveSettings(project, { elementOrder, mass, elementsPerSegment, modes })
+        const analysis = analyseFamily(project, family, settings, { withReference: false })
         const frequenciesHz = analysis.modes.map((m) => m.frequencyHz)
         const errors = frequenciesHz.map((f, i) => {
           const ref = reference.frequenciesHz[i]
           if (ref === undefined || reference.method === null) return null
           return ref === 0 ? (f === 0 ? 0 : null) : (f - ref) / ref
         })
-        points.push({ elementsPerSegment, dofs: analysis.totals.dofs, frequenciesHz, errors })
+        points.push({ elementsPerSegment, dofs: analysis.model.dofNodes.length, frequenciesHz, errors })
         if (options.onProgress?.(done / total) === false) stopped = true
       }
       series.push({ elementOrder, mass, points, observedOrder: observedOrders(points, modes), extrapolatedHz: richardson(points, modes) })
     }
   }
-  return { modes, referenceHz: reference.frequenciesHz, referenceMethod: reference.method, series }
+  return { family, modes, referenceHz: reference.frequenciesHz, referenceMethod: reference.method, series }
 }
 
 function observedOrders(points: ConvergencePoint[], modes: number): (number | null)[] {

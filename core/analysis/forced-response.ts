@@ -1,18 +1,18 @@
 /**
- * Steady-state receptance of the bar with modal damping: a harmonic force F e^{iωt} at x
- * gives a displacement H(ω) F e^{iωt} at y, by modal superposition over the computed modes
+ * Steady-state receptance of one motion family with modal damping: a harmonic force (axial),
+ * torque (torsion) or side force (bending) F e^{iωt} at x gives a displacement, twist or
+ * deflection H(ω) F e^{iωt} at y, by modal superposition over the computed modes
  * with a residual (static) correction for the modes left out:
  *   H(ω) = Σ φ_i(x) φ_i(y) / (ω_i² − ω² + 2iζ ω_i ω)  +  [G(x, y) − Σ φ_i(x) φ_i(y) / ω_i²],
  * where G = vᵀ K⁻¹ w is the static flexibility (w the load vector of a unit force at x,
  * v the interpolation at y). The bracket is the truncated modes' static part, so H(0) = G
  * exactly (the "mode-acceleration" correction; e.g. R. R. Craig & A. J. Kurdila,
  * Fundamentals of Structural Dynamics, ch. on mode superposition, from memory).
- * A bar with no support has no static flexibility: its rigid-body mode enters as 1/(−ω²)
+ * A family free to move as a rigid body has no static flexibility: its rigid-body modes enter as 1/(−ω²)
  * and no correction is made. Mode shapes φ are mass-normalised.
  */
 import { allocateFactorization, factorShifted, solveFactored } from '../linalg/shifted-ldlt'
-import type { ModalAnalysis } from './modal-analysis'
-import { materialOf } from '../model/geometry'
+import { fieldStrain, type FamilyAnalysis } from './modal-analysis'
 import { elementAt } from '../fe/mesh'
 
 export interface ResponseRequest {
@@ -36,10 +36,30 @@ export interface ResponsePoint {
   readonly imaginary: number
 }
 
-/** Interpolation weights of the field at x over the unknowns (shape functions of the element holding x). */
-export function pointWeights(analysis: ModalAnalysis, x: number): Float64Array {
-  const { mesh, dofNodes } = analysis.model
+/**
+ * Interpolation weights of the field at x over the unknowns (shape functions of the element
+ * holding x): the load vector of a unit force there, and the read-out of the displacement.
+ * Bending uses the Hermite cubic of the deflection (the rotation unknowns are scaled by ℓ).
+ */
+export function pointWeights(analysis: Pick<FamilyAnalysis, 'model'>, x: number): Float64Array {
+  const { mesh, dofNodes, dofKinds, rotationScale } = analysis.model
   const weights = new Float64Array(dofNodes.length)
+  if (dofKinds) {
+    const index = new Map<number, number>()
+    for (let j = 0; j < dofNodes.length; j++) index.set(2 * dofNodes[j] + dofKinds[j], j)
+    const e = elementAt({ ...mesh, order: 1 }, x)
+    const x0 = mesh.x[e]
+    const h = mesh.x[e + 1] - x0
+    const t = Math.min(1, Math.max(0, (x - x0) / h))
+    const t2 = t * t
+    const t3 = t2 * t
+    const n = [2 * t3 - 3 * t2 + 1, ((t3 - 2 * t2 + t) * h) / rotationScale, -2 * t3 + 3 * t2, ((t3 - t2) * h) / rotationScale]
+    n.forEach((value, a) => {
+      const dof = index.get(2 * e + a)
+      if (dof !== undefined) weights[dof] += value
+    })
+    return weights
+  }
   const dofOfNode = new Map<number, number>()
   dofNodes.forEach((node, dof) => dofOfNode.set(node, dof))
   const e = elementAt(mesh, x)
@@ -53,6 +73,11 @@ export function pointWeights(analysis: ModalAnalysis, x: number): Float64Array {
     if (dof !== undefined) weights[dof] += value
   })
   return weights
+}
+
+/** A family free to move as a rigid body has no static flexibility. */
+function hasRigidBodyModes(analysis: FamilyAnalysis): boolean {
+  return analysis.modes.some((m) => m.rigidBody)
 }
 
 function dot(a: Float64Array, b: Float64Array): number {
@@ -71,9 +96,9 @@ export interface ReceptanceModel {
 }
 
 /** The pieces of H(ω) between two given load and read-out vectors over the unknowns. */
-export function receptanceModel(analysis: ModalAnalysis, load: Float64Array, readout: Float64Array, damping: number): ReceptanceModel {
+export function receptanceModel(analysis: FamilyAnalysis, load: Float64Array, readout: Float64Array, damping: number): ReceptanceModel {
   const terms = analysis.modes.map((m, i) => ({ omega2: m.eigenvalue, product: dot(readout, analysis.vectors[i]) * dot(load, analysis.vectors[i]), rigid: m.rigidBody }))
-  if (analysis.model.supportInfluence === null) return { terms, residual: null, staticFlexibility: null, damping }
+  if (hasRigidBodyModes(analysis)) return { terms, residual: null, staticFlexibility: null, damping }
   const pencil = analysis.model.pencil
   const f = factorShifted(pencil, 0, allocateFactorization(pencil.stiffness.order, pencil.stiffness.halfBandwidth))
   const staticDisplacement = solveFactored(f, load, new Float64Array(load.length))
@@ -104,7 +129,7 @@ export function evaluateReceptance(model: ReceptanceModel, omega: number): [numb
 }
 
 /** Receptance u(y)/F(x) on an evenly spaced frequency grid. */
-export function forcedResponse(analysis: ModalAnalysis, request: ResponseRequest): { points: ResponsePoint[]; model: ReceptanceModel } {
+export function forcedResponse(analysis: FamilyAnalysis, request: ResponseRequest): { points: ResponsePoint[]; model: ReceptanceModel } {
   const damping = request.damping ?? analysis.project.damping
   const model = receptanceModel(analysis, pointWeights(analysis, request.forceAt), pointWeights(analysis, request.responseAt), damping)
   const points: ResponsePoint[] = []
@@ -117,16 +142,18 @@ export function forcedResponse(analysis: ModalAnalysis, request: ResponseRequest
 }
 
 /**
- * Largest axial stress amplitude along the bar per unit force at x, at one frequency:
- * the complex response shape u = Σ φ_i (φ_iᵀw)/(…) + K⁻¹w − Σ φ_i (φ_iᵀw)/ω_i², differentiated
- * element by element, times E. Pa per N.
+ * Largest stress amplitude along the part per unit force (or torque) at x, at one frequency:
+ * the complex response shape u = Σ φ_i (φ_iᵀw)/(…) + K⁻¹w − Σ φ_i (φ_iᵀw)/ω_i², turned into
+ * stress element by element as the mode shapes are (modeStrain): axial stress, shear stress of
+ * torsion, bending stress at the surface. Pa per N (per N·m for torsion).
  */
-export function peakStressPerForce(analysis: ModalAnalysis, forceAt: number, frequencyHz: number, damping = analysis.project.damping): { stress: number; at: number } {
+export function peakStressPerForce(analysis: FamilyAnalysis, forceAt: number, frequencyHz: number, damping = analysis.project.damping): { stress: number; at: number } {
   const load = pointWeights(analysis, forceAt)
   const n = load.length
   const re = new Float64Array(n)
   const im = new Float64Array(n)
   const omega = 2 * Math.PI * frequencyHz
+  const statics = !hasRigidBodyModes(analysis)
   analysis.modes.forEach((m, i) => {
     const phi = analysis.vectors[i]
     const participation = dot(phi, load)
@@ -139,7 +166,7 @@ export function peakStressPerForce(analysis: ModalAnalysis, forceAt: number, fre
       const a = m.eigenvalue - omega * omega
       const b = 2 * damping * Math.sqrt(m.eigenvalue) * omega
       const d = a * a + b * b
-      cr = (participation * a) / d - (analysis.model.supportInfluence ? participation / m.eigenvalue : 0)
+      cr = (participation * a) / d - (statics ? participation / m.eigenvalue : 0)
       ci = (-participation * b) / d
     }
     for (let j = 0; j < n; j++) {
@@ -147,49 +174,18 @@ export function peakStressPerForce(analysis: ModalAnalysis, forceAt: number, fre
       im[j] += ci * phi[j]
     }
   })
-  if (analysis.model.supportInfluence) {
+  if (statics) {
     const pencil = analysis.model.pencil
     const f = factorShifted(pencil, 0, allocateFactorization(pencil.stiffness.order, pencil.stiffness.halfBandwidth))
-    const statics = solveFactored(f, load, new Float64Array(n))
-    for (let j = 0; j < n; j++) re[j] += statics[j]
+    const displacement = solveFactored(f, load, new Float64Array(n))
+    for (let j = 0; j < n; j++) re[j] += displacement[j]
   }
-  // Node displacements (fixed nodes stay 0), then E du/dx at both ends of every element.
-  const { mesh, dofNodes } = analysis.model
-  const nodeRe = new Float64Array(mesh.x.length)
-  const nodeIm = new Float64Array(mesh.x.length)
-  dofNodes.forEach((node, dof) => {
-    nodeRe[node] = re[dof]
-    nodeIm[node] = im[dof]
-  })
+  const real = fieldStrain(analysis, re)
+  const imaginary = fieldStrain(analysis, im)
   let best = { stress: 0, at: 0 }
-  const moduli = analysis.project.segments.map((s) => materialOf(analysis.project, s).youngsModulus)
-  const order = mesh.order
-  for (let e = 0; e < mesh.elementCount; e++) {
-    const first = order * e
-    const E = moduli[mesh.elementSegment[e]]
-    const x0 = mesh.x[first]
-    const x1 = mesh.x[first + order]
-    const h = x1 - x0
-    const ends: [number, number[]][] =
-      order === 1
-        ? [
-            [x0, [-1 / h, 1 / h]],
-            [x1, [-1 / h, 1 / h]],
-          ]
-        : [
-            [x0, [-3 / h, 4 / h, -1 / h]],
-            [x1, [1 / h, -4 / h, 3 / h]],
-          ]
-    for (const [x, derivative] of ends) {
-      let sr = 0
-      let si = 0
-      derivative.forEach((weight, a) => {
-        sr += weight * nodeRe[first + a]
-        si += weight * nodeIm[first + a]
-      })
-      const stress = E * Math.hypot(sr, si)
-      if (stress > best.stress) best = { stress, at: x }
-    }
+  for (let k = 0; k < real.x.length; k++) {
+    const stress = Math.hypot(real.stress[k], imaginary.stress[k])
+    if (stress > best.stress) best = { stress, at: real.x[k] }
   }
   return best
 }

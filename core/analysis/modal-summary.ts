@@ -6,14 +6,19 @@ import { hzToRpm } from '../model/units'
 import type { ModalAnalysis } from './modal-analysis'
 import { bandName, closestPair } from './resonance'
 import { modelWarnings } from './model-checks'
+import { nowMs } from '../clock'
 
 export interface SolveDocument {
   title: string
+  motions: string[]
   totals: { length: number; mass: number; elements: number; dofs: number }
-  analysis: { elementOrder: number; elementsPerSegment?: number; maxElementLength?: number; mass: string; modes: number }
+  analysis: { elementOrder: number; elementsPerSegment?: number; maxElementLength?: number; mass: string; modes: number; bendingTheory?: string }
   margin: number
+  preload?: number
   modes: {
     mode: number
+    motion: string
+    plane: string | null
     frequencyHz: number
     rigidBody: boolean
     referenceHz: number | null
@@ -23,18 +28,35 @@ export interface SolveDocument {
     effectiveMassFraction: number | null
     cumulativeEffectiveMassFraction: number | null
   }[]
-  reference: { method: 'exact' | null; formulation: string | null; frequenciesHz: number[] }
-  resonance: { mode: number; modeHz: number; excitation: string; order: number | null; excitationHz: [number, number]; separation: number; status: string }[]
-  checks: { sturmCount: { passed: boolean; shifts: number[]; counts: number[]; expected: number[] } }
+  reference: {
+    /** The axial family's (or the only family's) method and frequencies, as in version 1. */
+    method: 'exact' | 'extrapolated' | null
+    formulation: string | null
+    frequenciesHz: number[]
+    /** Every family's reference frequencies, by family key ("axial", "torsion", "bending" or "bending-weak"/"bending-strong"). */
+    families: Record<string, number[]>
+    /** Every family's method: "exact", or "extrapolated" (a Richardson estimate from two fine meshes). */
+    methods: Record<string, 'exact' | 'extrapolated' | null>
+    formulations: Record<string, string | null>
+  }
+  resonance: { mode: number; motion: string; plane: string | null; modeHz: number; excitation: string; order: number | null; excitationHz: [number, number]; separation: number; status: string }[]
+  buckling: { compression: number; criticalCompression: number; ratio: number; method: string } | null
+  checks: { sturmCount: { passed: boolean; shifts: number[]; counts: number[]; expected: number[]; families: Record<string, { passed: boolean; shifts: number[]; counts: number[]; expected: number[] }> } }
   /** Plain-language warnings about trust in the results (model-checks.ts); empty when none. */
   warnings: { code: string; message: string }[]
-  timing: { assembleMs: number; solveMs: number }
+  timing: { assembleMs: number; solveMs: number; referenceMs: number; checksMs: number }
 }
 
 export function solveDocument(analysis: ModalAnalysis): SolveDocument {
   const s = analysis.settings
+  const primary = analysis.families.find((f) => f.family.motion === 'axial') ?? analysis.families[0]
+  const sturmOf = (f: (typeof analysis.families)[number]) => ({ passed: f.sturm.passed, shifts: f.sturm.shifts, counts: f.sturm.counts, expected: f.sturm.expected })
+  const t0 = nowMs()
+  const warnings = modelWarnings(analysis).map((w) => ({ code: w.code, message: w.message }))
+  const checksMs = analysis.timing.checksMs + (nowMs() - t0)
   return {
     title: analysis.project.title ?? '',
+    motions: [...analysis.project.motions],
     totals: analysis.totals,
     analysis: {
       elementOrder: s.elementOrder,
@@ -42,10 +64,14 @@ export function solveDocument(analysis: ModalAnalysis): SolveDocument {
       ...(s.maxElementLength !== undefined ? { maxElementLength: s.maxElementLength } : {}),
       mass: s.mass,
       modes: s.modes,
+      ...(analysis.project.motions.includes('bending') ? { bendingTheory: s.bendingTheory ?? 'euler-bernoulli' } : {}),
     },
     margin: analysis.project.margin,
+    ...(analysis.project.preload !== undefined ? { preload: analysis.project.preload } : {}),
     modes: analysis.modes.map((m) => ({
       mode: m.mode,
+      motion: m.motion,
+      plane: m.plane,
       frequencyHz: m.frequencyHz,
       rigidBody: m.rigidBody,
       referenceHz: m.referenceHz,
@@ -55,9 +81,18 @@ export function solveDocument(analysis: ModalAnalysis): SolveDocument {
       effectiveMassFraction: m.effectiveMassFraction,
       cumulativeEffectiveMassFraction: m.cumulativeEffectiveMassFraction,
     })),
-    reference: { method: analysis.reference.method, formulation: analysis.reference.formulation, frequenciesHz: analysis.reference.frequenciesHz },
+    reference: {
+      method: primary?.reference.method ?? null,
+      formulation: primary?.reference.formulation ?? null,
+      frequenciesHz: primary?.reference.frequenciesHz ?? [],
+      families: Object.fromEntries(analysis.families.map((f) => [f.family.key, f.reference.frequenciesHz])),
+      methods: Object.fromEntries(analysis.families.map((f) => [f.family.key, f.reference.method])),
+      formulations: Object.fromEntries(analysis.families.map((f) => [f.family.key, f.reference.formulation])),
+    },
     resonance: analysis.resonance.map((p) => ({
       mode: p.mode,
+      motion: p.motion,
+      plane: p.plane,
       modeHz: p.frequencyHz,
       excitation: p.band.label,
       order: p.band.order,
@@ -65,16 +100,22 @@ export function solveDocument(analysis: ModalAnalysis): SolveDocument {
       separation: p.separation,
       status: p.status,
     })),
+    buckling: analysis.buckling ? { ...analysis.buckling } : null,
     checks: {
-      sturmCount: { passed: analysis.sturm.passed, shifts: analysis.sturm.shifts, counts: analysis.sturm.counts, expected: analysis.sturm.expected },
+      sturmCount: {
+        ...(primary ? sturmOf(primary) : { passed: true, shifts: [], counts: [], expected: [] }),
+        passed: analysis.sturmPassed,
+        families: Object.fromEntries(analysis.families.map((f) => [f.family.key, sturmOf(f)])),
+      },
     },
-    warnings: modelWarnings(analysis).map((w) => ({ code: w.code, message: w.message })),
-    timing: { assembleMs: analysis.timing.assembleMs, solveMs: analysis.timing.solveMs },
+    warnings,
+    timing: { assembleMs: analysis.timing.assembleMs, solveMs: analysis.timing.solveMs, referenceMs: analysis.timing.referenceMs, checksMs },
   }
 }
 
 export const MODAL_SUMMARY_COLUMNS = [
   'mode',
+  'motion',
   'frequency_hz',
   'speed_rpm',
   'reference_hz',
@@ -84,6 +125,7 @@ export const MODAL_SUMMARY_COLUMNS = [
   'closest_excitation',
   'separation_percent',
   'status',
+  'plane',
 ] as const
 
 function csvField(value: string | number | null): string {
@@ -103,9 +145,10 @@ function formatNumber(v: number): string {
 export function modalSummaryCsv(analysis: ModalAnalysis): string {
   const lines = [MODAL_SUMMARY_COLUMNS.join(',')]
   for (const m of analysis.modes) {
-    const pair = closestPair(analysis.resonance, m.mode)
+    const pair = closestPair(analysis.resonance, m)
     const row = [
       m.mode,
+      m.motion,
       m.frequencyHz,
       hzToRpm(m.frequencyHz),
       m.referenceHz,
@@ -115,6 +158,7 @@ export function modalSummaryCsv(analysis: ModalAnalysis): string {
       pair ? bandName(pair.band) : m.rigidBody ? 'rigid-body mode' : null,
       pair ? 100 * pair.separation : null,
       pair ? pair.status : null,
+      m.plane,
     ]
     lines.push(row.map(csvField).join(','))
   }

@@ -9,10 +9,12 @@
  */
 import { bilinearForm, multiplyBand } from '../linalg/symmetric-band-matrix'
 import { materialOf, meanSectionArea } from '../model/geometry'
-import type { ModalAnalysis } from './modal-analysis'
+import { springMotion } from '../model/project'
+import { familyName } from '../model/families'
+import type { AnalysisWarning, FamilyAnalysis, ModalAnalysis } from './modal-analysis'
 
 export interface ModelWarning {
-  readonly code: 'residual' | 'orthogonality' | 'stiff-spring' | 'heavy-mass' | 'stiffness-range' | 'sliver-element' | 'sturm' | 'convergence'
+  readonly code: 'residual' | 'orthogonality' | 'stiff-spring' | 'heavy-mass' | 'stiffness-range' | 'sliver-element' | 'sturm' | 'convergence' | AnalysisWarning['code']
   readonly message: string
 }
 
@@ -26,7 +28,7 @@ function norm(v: Float64Array): number {
 }
 
 /** Relative residual of every mode, as the solver's own check. */
-export function modeResiduals(analysis: ModalAnalysis): number[] {
+export function modeResiduals(analysis: FamilyAnalysis): number[] {
   const { pencil } = analysis.model
   const n = pencil.stiffness.order
   const kphi = new Float64Array(n)
@@ -41,9 +43,26 @@ export function modeResiduals(analysis: ModalAnalysis): number[] {
   })
 }
 
+/** Every warning of an analysis: each family's solver checks, the part's conditioning, and the analysis's own warnings. */
 export function modelWarnings(analysis: ModalAnalysis): ModelWarning[] {
   const warnings: ModelWarning[] = []
-  const { project } = analysis
+  const several = analysis.families.length > 1
+  for (const family of analysis.families) {
+    const prefix = several ? `${capitalise(familyName(family.family))}: ` : ''
+    for (const w of familyWarnings(family)) warnings.push({ code: w.code, message: prefix + w.message })
+  }
+  if (analysis.families[0]) warnings.push(...partWarnings(analysis.families[0]))
+  warnings.push(...analysis.warnings)
+  return warnings
+}
+
+function capitalise(text: string): string {
+  return text.charAt(0).toUpperCase() + text.slice(1)
+}
+
+/** The solver's own checks of one family: Sturm count, convergence, residuals, orthogonality. */
+export function familyWarnings(analysis: FamilyAnalysis): ModelWarning[] {
+  const warnings: ModelWarning[] = []
   if (!analysis.sturm.passed) {
     warnings.push({ code: 'sturm', message: 'The Sturm count could not confirm that no mode was missed below the highest one reported. Treat the list of modes as incomplete.' })
   }
@@ -75,6 +94,13 @@ export function modelWarnings(analysis: ModalAnalysis): ModelWarning[] {
   if (worstProduct > 1e-6) {
     warnings.push({ code: 'orthogonality', message: `Modes ${worstPair[0]} and ${worstPair[1]} are not mass-orthogonal (φᵀMφ = ${worstProduct.toExponential(1)}): close frequencies or an ill-conditioned model.` })
   }
+  return warnings
+}
+
+/** Extreme ratios in the part itself: springs, masses, sections and elements. */
+function partWarnings(analysis: FamilyAnalysis): ModelWarning[] {
+  const warnings: ModelWarning[] = []
+  const { project } = analysis
   // Scale of the bar: its axial stiffness end to end (segments in series) and its own mass.
   let softest = Infinity
   let stiffest = 0
@@ -90,6 +116,7 @@ export function modelWarnings(analysis: ModalAnalysis): ModelWarning[] {
   }
   const barStiffness = 1 / flexibility
   project.springs.forEach((spring, i) => {
+    if (springMotion(spring) !== 'axial') return
     const ratio = spring.stiffness / barStiffness
     if (ratio > 1e9) {
       warnings.push({

@@ -57,7 +57,7 @@ interface ModeEnergies {
 }
 
 /** Sensitivities of the lowest `modes` exact frequencies (rigid-body modes skipped). */
-export function frequencySensitivities(project: Project, modes: number, parameters: DesignParameter[] = designParameters(project)): Sensitivity[] {
+export function frequencySensitivities(project: Project, modes: number, parameters: DesignParameter[] = designParameters(project, ['axial'])): Sensitivity[] {
   const chain = stationChain(project)
   const omegas = exactAngularFrequencies(chain, modes)
   const out: Sensitivity[] = []
@@ -158,6 +158,9 @@ function lambdaDerivative(project: Project, chain: StationChain, omega: number, 
       })
       return sum / denominator
     }
+    default:
+      // Shear modulus, inertias about the axis or across it, rotational springs, preload: no part in axial motion.
+      return 0
   }
 }
 

@@ -10,13 +10,18 @@
  * the samples between workers gives the same result.
  */
 import { seededRandom, type RandomSource } from '../random'
-import type { Material, Project, Section, Tolerances } from '../model/project'
+import type { Material, Motion, Project, Section, Tolerances } from '../model/project'
 import { resolveMaterial, segmentBoundaries } from '../model/geometry'
-import { analyseProject, type ModalAnalysis } from './modal-analysis'
+import { analyseProject, type ModalAnalysis, type ModeResult } from './modal-analysis'
+import type { BendingPlane, FamilyKey } from '../model/families'
 import { designParameters } from './design-parameters'
 
 export interface ScatterQuantiles {
+  /** Numbered within its family, as the modes are. */
   readonly mode: number
+  readonly motion: Motion
+  readonly plane: BendingPlane | null
+  readonly family: FamilyKey
   readonly nominalHz: number
   readonly p05: number
   readonly p50: number
@@ -38,6 +43,12 @@ const TOLERANCE_OF: Record<string, keyof Tolerances> = {
   sectionDimension: 'diameter',
   mass: 'mass',
   stiffness: 'stiffness',
+  // Version 2: a given shear modulus scatters as a modulus, inertias as masses, rotational springs as springs.
+  poissonRatio: 'poissonRatio',
+  shearModulus: 'youngsModulus',
+  polarInertia: 'mass',
+  transverseInertia: 'mass',
+  rotationalStiffness: 'stiffness',
 }
 
 /** One random draw of the project within its tolerances. */
@@ -51,17 +62,39 @@ export function scatterDraw(project: Project, tolerances: Tolerances, random: Ra
   })
   const lengths = project.segments.map((s) => s.length)
   const sections = project.segments.map((s) => ({ ...s.section }) as Record<string, number | string>)
-  const materialValues = new Map<string, { youngsModulus?: number; density?: number }>()
-  const masses = project.masses.map((m) => m.mass)
-  const stiffnesses = project.springs.map((s) => s.stiffness)
+  const materialValues = new Map<string, Partial<Record<'youngsModulus' | 'density' | 'poissonRatio' | 'shearModulus', number>>>()
+  const masses = project.masses.map((m) => ({ ...m }))
+  const springs = project.springs.map((s) => ({ ...s }))
+  let preload = project.preload
   parameters.forEach((parameter, i) => {
     const target = parameter.target
     const value = parameter.value * factors[i]
-    if (target.kind === 'segmentLength') lengths[target.segment] = value
-    else if (target.kind === 'sectionDimension') sections[target.segment][target.dimension] = value
-    else if (target.kind === 'youngsModulus' || target.kind === 'density') materialValues.set(target.material, { ...materialValues.get(target.material), [target.kind]: value })
-    else if (target.kind === 'mass') masses[target.index] = value
-    else stiffnesses[target.index] = value
+    switch (target.kind) {
+      case 'segmentLength':
+        lengths[target.segment] = value
+        break
+      case 'sectionDimension':
+        sections[target.segment][target.dimension] = value
+        break
+      case 'youngsModulus':
+      case 'density':
+      case 'poissonRatio':
+      case 'shearModulus':
+        materialValues.set(target.material, { ...materialValues.get(target.material), [target.kind]: value })
+        break
+      case 'mass':
+      case 'polarInertia':
+      case 'transverseInertia':
+        masses[target.index][target.kind] = value
+        break
+      case 'stiffness':
+      case 'rotationalStiffness':
+        springs[target.index][target.kind] = value
+        break
+      case 'preload':
+        preload = value
+        break
+    }
   })
   // Attachments keep their fraction of the segment they sit in; later segments move with the
   // change of the ones before (the file format's rule, applied to every length at once).
@@ -87,8 +120,9 @@ export function scatterDraw(project: Project, tolerances: Tolerances, random: Ra
     // Fresh literals of one shape, rather than spreads of the parsed file's objects: a solve per
     // sample then always sees the same object layouts and stays in optimised code.
     segments: project.segments.map((s, i) => ({ length: lengths[i], material: s.material, section: sections[i] as unknown as Section })),
-    masses: project.masses.map((m, i) => ({ ...m, at: move(m.at), mass: masses[i] })),
-    springs: project.springs.map((sp, i) => ({ ...sp, at: move(sp.at), stiffness: stiffnesses[i] })),
+    masses: masses.map((m) => ({ ...m, at: move(m.at) })),
+    springs: springs.map((sp) => ({ ...sp, at: move(sp.at) })),
+    ...(preload !== undefined ? { preload } : {}),
   }
   drawn.segments.forEach((segment, i) => {
     if (segment.section.shape === 'tube' && !(segment.section.innerDiameter < segment.section.outerDiameter)) {
@@ -134,14 +168,17 @@ export function sampleQuantile(sorted: ArrayLike<number>, p: number): number {
   return sorted[lo] + (h - lo) * (sorted[hi] - sorted[lo])
 }
 
-export function scatterQuantiles(frequencies: Float64Array, modes: number, nominalHz: number[]): ScatterQuantiles[] {
+/** Quantiles per mode of frequencies laid out as scatterFrequencies does, for the nominal analysis's modes (all families, in order). */
+export function scatterQuantiles(frequencies: Float64Array, nominal: readonly Pick<ModeResult, 'mode' | 'motion' | 'plane' | 'family' | 'frequencyHz'>[]): ScatterQuantiles[] {
+  const modes = nominal.length
   const samples = frequencies.length / modes
   const out: ScatterQuantiles[] = []
   for (let m = 0; m < modes; m++) {
     const column = new Float64Array(samples)
     for (let s = 0; s < samples; s++) column[s] = frequencies[s * modes + m]
     column.sort()
-    out.push({ mode: m + 1, nominalHz: nominalHz[m], p05: sampleQuantile(column, 0.05), p50: sampleQuantile(column, 0.5), p95: sampleQuantile(column, 0.95) })
+    const { mode, motion, plane, family, frequencyHz } = nominal[m]
+    out.push({ mode, motion, plane, family, nominalHz: frequencyHz, p05: sampleQuantile(column, 0.05), p50: sampleQuantile(column, 0.5), p95: sampleQuantile(column, 0.95) })
   }
   return out
 }

@@ -6,8 +6,9 @@
  * negative). Frequencies come from the exact piecewise solver, so the search is free of
  * discretisation error; the caller re-solves the tuned part to show its finite-element table.
  */
-import { exactReference } from '../exact/reference'
-import type { Project } from '../model/project'
+import { designFrequencies } from '../exact/family-reference'
+import { analysedFamilies } from '../model/families'
+import type { Motion, Project } from '../model/project'
 import { brentMinimize } from '../optimize/brent-minimize'
 import { brentRoot } from '../optimize/brent-root'
 import { findParameter, withParameter, type DesignParameter } from './design-parameters'
@@ -21,18 +22,23 @@ export interface TuneRequest {
   /** With targetHz: the mode (1-based) to place. */
   readonly mode?: number
   readonly targetHz?: number
-  /** Modes considered for the separation objective (default: the project's analysis.modes). */
+  /** Modes considered for the separation objective (default: the project's analysis.modes), per family. */
   readonly modes?: number
+  /** The family of `mode` and the families whose separation counts (default: every analysed family; mode N then of the first). */
+  readonly motion?: Motion
 }
 
 export interface TunePoint {
   readonly value: number
+  /** The considered families' frequencies, family after family (see `families`). */
   readonly frequenciesHz: number[]
   /** Smallest |separation| over every elastic mode and band; null without excitations. */
   readonly minSeparation: number | null
 }
 
 export interface TuneResult extends TunePoint {
+  /** The family of each entry of frequenciesHz, and its mode number within the family. */
+  readonly families: { readonly family: string; readonly mode: number }[]
   readonly parameter: string
   readonly label: string
   readonly goal: 'target' | 'separation'
@@ -53,19 +59,27 @@ export function tuneParameter(project: Project, request: TuneRequest): TuneResul
   const { min, max } = request
   if (!(Number.isFinite(min) && Number.isFinite(max) && min > 0 && max > min)) throw new TuneError('the bounds must satisfy 0 < min < max')
   const modes = Math.max(request.modes ?? project.analysis.modes, request.mode ?? 1)
-  const bands = excitationBands(project.excitations)
+  const families = analysedFamilies(project).filter((f) => !request.motion || f.motion === request.motion)
+  if (families.length === 0) throw new TuneError(`the project does not analyse ${request.motion ?? 'any motion'}`)
+  const bands = excitationBands(project.excitations, project.motions).filter((b) => families.some((f) => b.excites.includes(f.motion)))
+  const settings = { ...project.analysis, modes }
+  const layout = families.flatMap((f) => Array.from({ length: modes }, (_, i) => ({ family: f.key, motion: f.motion, mode: i + 1 })))
   let evaluations = 0
   const frequencies = (value: number): number[] => {
     evaluations++
-    return exactReference(withParameter(project, parameter.target, value), modes).frequenciesHz
+    const changed = withParameter(project, parameter.target, value)
+    return families.flatMap((f) => {
+      const fs = designFrequencies(changed, f, settings, modes)
+      return layout.filter((l) => l.family === f.key).map((_, i) => fs[i] ?? NaN)
+    })
   }
   const separation = (fs: number[]): number | null => {
     if (bands.length === 0) return null
     let worst = Infinity
-    for (const f of fs) {
-      if (f === 0) continue
-      for (const band of bands) worst = Math.min(worst, Math.abs(separationFromBand(f, band.hz)))
-    }
+    fs.forEach((f, i) => {
+      if (f === 0 || !Number.isFinite(f)) return
+      for (const band of bands) if (band.excites.includes(layout[i].motion)) worst = Math.min(worst, Math.abs(separationFromBand(f, band.hz)))
+    })
     return worst
   }
   const point = (value: number): TunePoint => {
@@ -79,6 +93,7 @@ export function tuneParameter(project: Project, request: TuneRequest): TuneResul
     const mode = request.mode ?? 1
     const target = request.targetHz
     if (!(target > 0)) throw new TuneError('the target frequency must be > 0')
+    // Mode N of the first considered family.
     const offset = (value: number) => frequencies(value)[mode - 1] - target
     const values = grid.map(offset)
     const i = values.findIndex((v, j) => j > 0 && Math.sign(v) !== Math.sign(values[j - 1]))
@@ -90,7 +105,7 @@ export function tuneParameter(project: Project, request: TuneRequest): TuneResul
       )
     }
     const value = brentRoot(offset, grid[i - 1], grid[i], 1e-13)
-    return finish(parameter, 'target', point(value), before, evaluations)
+    return finish(parameter, 'target', point(value), before, evaluations, layout)
   }
 
   if (bands.length === 0) throw new TuneError('the project has no excitations to separate from; give --mode and --target instead')
@@ -102,9 +117,9 @@ export function tuneParameter(project: Project, request: TuneRequest): TuneResul
   const hi = grid[Math.min(best + 1, GRID)]
   const refined = brentMinimize(objective, lo, hi, 1e-10)
   const value = refined.fx <= scores[best] ? refined.x : grid[best]
-  return finish(parameter, 'separation', point(value), before, evaluations)
+  return finish(parameter, 'separation', point(value), before, evaluations, layout)
 }
 
-function finish(parameter: DesignParameter, goal: 'target' | 'separation', at: TunePoint, before: TunePoint, evaluations: number): TuneResult {
-  return { parameter: parameter.path, label: parameter.label, goal, ...at, before, evaluations }
+function finish(parameter: DesignParameter, goal: 'target' | 'separation', at: TunePoint, before: TunePoint, evaluations: number, layout: { family: string; mode: number }[]): TuneResult {
+  return { parameter: parameter.path, label: parameter.label, goal, ...at, families: layout.map(({ family, mode }) => ({ family, mode })), before, evaluations }
 }

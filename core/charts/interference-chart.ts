@@ -17,7 +17,8 @@
  */
 import type { EChartsOption, LineSeriesOption, ScatterSeriesOption } from 'echarts'
 import type { ModalAnalysis } from '../analysis/modal-analysis'
-import { bandName, excitationBands, type ExcitationBand, type ResonancePair } from '../analysis/resonance'
+import { bandName, excitationBands, modeKey, type ExcitationBand, type ResonancePair } from '../analysis/resonance'
+import type { FamilyKey } from '../model/families'
 import type { Excitation } from '../model/project'
 import { hzToRpm, rpmToHz } from '../model/units'
 import { axisStyle, baseOption, niceCeil, paletteOf, tooltipBase, type ChartBuildOptions } from './chart-common'
@@ -25,13 +26,13 @@ import { escapeHtml, figure, signedPercent } from './chart-text'
 
 export interface InterferenceChartInput {
   /** With `referenceHz`, the exact frequency is drawn, as the resonance check uses it where known. */
-  readonly modes: readonly { readonly mode: number; readonly frequencyHz: number; readonly rigidBody: boolean; readonly referenceHz?: number | null }[]
+  readonly modes: readonly { readonly mode: number; readonly family: FamilyKey; readonly frequencyHz: number; readonly rigidBody: boolean; readonly referenceHz?: number | null }[]
   readonly excitations: readonly Excitation[]
   readonly margin: number
   /** The resonance pairs of core/analysis/resonance.ts for these modes and excitations. */
   readonly resonance: readonly ResonancePair[]
   /** Tolerance bands of the modes (the 5 % and 95 % frequencies of a scatter of this part), drawn when given. */
-  readonly scatter?: readonly { readonly mode: number; readonly p05: number; readonly p95: number }[]
+  readonly scatter?: readonly { readonly mode: number; readonly family: FamilyKey; readonly p05: number; readonly p95: number }[]
 }
 
 export function interferenceChartInput(analysis: ModalAnalysis): InterferenceChartInput {
@@ -133,8 +134,8 @@ export function interferenceChartOption(input: InterferenceChartInput, options: 
 
   // Natural frequencies: a line and its margin band each (around the tolerance band where the check used it).
   const shownModes = input.modes.filter((m) => !m.rigidBody && checkedFrequency(m) <= hzMax)
-  const checkedBands = new Map<number, readonly [number, number]>()
-  for (const pair of input.resonance) if (pair.modeBandHz) checkedBands.set(pair.mode, pair.modeBandHz)
+  const checkedBands = new Map<string, readonly [number, number]>()
+  for (const pair of input.resonance) if (pair.modeBandHz) checkedBands.set(modeKey(pair), pair.modeBandHz)
   series.push({
     type: 'line',
     name: 'Natural frequencies',
@@ -144,7 +145,7 @@ export function interferenceChartOption(input: InterferenceChartInput, options: 
       itemStyle: { color: palette.modeBand },
       label: { show: false },
       data: shownModes.map((m) => {
-        const modeBandHz = checkedBands.get(m.mode)
+        const modeBandHz = checkedBands.get(modeKey(m))
         const [lo, hi] = pairMarginBand({ frequencyHz: checkedFrequency(m), modeBandHz }, input.margin)
         return [{ yAxis: lo, name: `Mode ${m.mode} margin band${modeBandHz ? ' around its tolerance band' : ''}` }, { yAxis: hi }]
       }),
@@ -161,7 +162,7 @@ export function interferenceChartOption(input: InterferenceChartInput, options: 
 
   // Tolerance bands: where 90 % of the scattered parts put each mode.
   if (input.scatter?.length) {
-    const shownBands = input.scatter.filter((b) => shownModes.some((m) => m.mode === b.mode))
+    const shownBands = input.scatter.filter((b) => shownModes.some((m) => modeKey(m) === modeKey(b)))
     series.push({
       type: 'line',
       name: 'Tolerance bands',

@@ -8,8 +8,8 @@
  * of 1 mm peak amplitude (or 1 in) would cause, which is what an engineer can use.
  */
 import type { EChartsOption, LineSeriesOption } from 'echarts'
-import { modeShape, modeStrain, type ModalAnalysis } from '../analysis/modal-analysis'
-import { segmentBoundaries } from '../model/geometry'
+import { modeShape, modeStrain, type FamilyAnalysis } from '../analysis/modal-analysis'
+import { segmentBoundaries, totalLength } from '../model/geometry'
 import { displayUnit, toDisplay, type UnitSystem } from '../model/units'
 import { axisStyle, baseOption, paletteOf, tooltipBase, type ChartBuildOptions } from './chart-common'
 import { escapeHtml, figure } from './chart-text'
@@ -43,7 +43,7 @@ export interface ModeShapeChartData {
  * `maxPoints` nodes are thinned evenly, always keeping the nodes at segment boundaries and
  * attachments, so a chart of a million-unknown model stays light.
  */
-export function modeShapeChartData(analysis: ModalAnalysis, modeIndices?: readonly number[], maxPoints = 2000): ModeShapeChartData {
+export function modeShapeChartData(analysis: FamilyAnalysis, modeIndices?: readonly number[], maxPoints = 2000): ModeShapeChartData {
   const indices = modeIndices ?? analysis.modes.map((_, i) => i)
   const mesh = analysis.model.mesh
   const nodeCount = mesh.x.length
@@ -82,7 +82,7 @@ export function modeShapeChartData(analysis: ModalAnalysis, modeIndices?: readon
       stress: stressValues,
     }
   })
-  return { length: analysis.totals.length, segmentBoundaries: segmentBoundaries(analysis.project.segments), curves }
+  return { length: totalLength(analysis.project.segments), segmentBoundaries: segmentBoundaries(analysis.project.segments), curves }
 }
 
 /** Indices 0 … count−1, every k-th of them where there are more than `limit`, plus the ones that must stay. */

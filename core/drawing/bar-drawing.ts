@@ -182,8 +182,8 @@ export function barDrawing(project: Pick<Project, 'segments' | 'ends' | 'masses'
   const bounds = segmentBoundaries(segments)
   const length = totalLength(segments)
   const labelled = segments.length <= MAX_LABELLED_SEGMENTS
-  const fixedStart = project.ends.start === 'fixed'
-  const fixedEnd = project.ends.end === 'fixed'
+  const fixedStart = project.ends.start.axial === 'fixed'
+  const fixedEnd = project.ends.end.axial === 'fixed'
 
   const maxSize = Math.max(...segments.flatMap((s) => [sectionOuterSize(s.section, 0), sectionOuterSize(s.section, 1)]))
   const charWidth = 0.6 * fontSize

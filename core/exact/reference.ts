@@ -61,7 +61,7 @@ export function stationChain(project: Project): StationChain {
   const stationMass = stations.map(() => 0)
   for (const sp of project.springs) stationStiffness[stationIndex(sp.at)] += sp.stiffness
   for (const pm of project.masses) stationMass[stationIndex(pm.at)] += pm.mass
-  return { members, stationStiffness, stationMass, fixedStart: project.ends.start === 'fixed', fixedEnd: project.ends.end === 'fixed' }
+  return { members, stationStiffness, stationMass, fixedStart: project.ends.start.axial === 'fixed', fixedEnd: project.ends.end.axial === 'fixed' }
 }
 
 /** Lowest `count` exact natural frequencies, Hz. */
@@ -80,7 +80,8 @@ function closedFormReference(project: Project, count: number): ExactReference | 
   const material = materialOf(project, segment)
   const c = Math.sqrt(material.youngsModulus / material.density)
   const L = totalLength(project.segments)
-  const { start, end } = project.ends
+  const start = project.ends.start.axial
+  const end = project.ends.end.axial
   const attachments = project.masses.length + project.springs.length
   if (attachments === 0) {
     return {

@@ -63,6 +63,7 @@ const length = () => physical(1e-6, 1e4, 'm')
 const secondMomentOfArea = () => physical(1e-30, 1e4, 'm⁴')
 
 /** C0 and C1 control characters and DEL: they could retitle a terminal or erase its lines. */
+// eslint-disable-next-line no-control-regex -- finding control characters is the point
 const CONTROL_CHARACTER = /[\u0000-\u001f\u007f-\u009f]/
 function controlCharacterMessage(text: string): string | null {
   const match = CONTROL_CHARACTER.exec(text)
@@ -331,6 +332,7 @@ export const ECHO_LIMIT = 60
 /** A value from the file as it may appear in a message: at most `limit` characters, control characters escaped. */
 export function echo(value: string, limit = ECHO_LIMIT): string {
   const short = value.length > limit ? `${value.slice(0, limit)}…` : value
+  // eslint-disable-next-line no-control-regex -- escaping control characters is the point
   return short.replace(/[\u0000-\u001f\u007f-\u009f]/g, (c) => `\\u${c.charCodeAt(0).toString(16).padStart(4, '0')}`)
 }
 

@@ -23,6 +23,12 @@ export type QuantityKind =
   | 'speed'
   | 'receptance'
   | 'fraction'
+  | 'secondMoment'
+  | 'massInertia'
+  | 'rotationalStiffness'
+  | 'torque'
+  | 'ratio'
+  | 'angle'
 
 export interface Unit {
   readonly symbol: string
@@ -54,6 +60,12 @@ const DISPLAY_UNITS: Record<UnitSystem, Record<QuantityKind, Unit>> = {
     speed: { symbol: 'rpm', toSI: RPM },
     receptance: { symbol: 'm/N', toSI: 1 },
     fraction: { symbol: '%', toSI: 0.01 },
+    secondMoment: { symbol: 'mm⁴', toSI: 1e-12 },
+    massInertia: { symbol: 'kg·m²', toSI: 1 },
+    rotationalStiffness: { symbol: 'N·m/rad', toSI: 1 },
+    torque: { symbol: 'N·m', toSI: 1 },
+    ratio: { symbol: '', toSI: 1 },
+    angle: { symbol: 'rad', toSI: 1 },
   },
   US: {
     length: { symbol: 'in', toSI: INCH },
@@ -69,6 +81,12 @@ const DISPLAY_UNITS: Record<UnitSystem, Record<QuantityKind, Unit>> = {
     speed: { symbol: 'rpm', toSI: RPM },
     receptance: { symbol: 'in/lbf', toSI: INCH / POUND_FORCE },
     fraction: { symbol: '%', toSI: 0.01 },
+    secondMoment: { symbol: 'in⁴', toSI: INCH ** 4 },
+    massInertia: { symbol: 'lbm·in²', toSI: POUND_MASS * INCH * INCH },
+    rotationalStiffness: { symbol: 'lbf·in/rad', toSI: POUND_FORCE * INCH },
+    torque: { symbol: 'lbf·in', toSI: POUND_FORCE * INCH },
+    ratio: { symbol: '', toSI: 1 },
+    angle: { symbol: 'rad', toSI: 1 },
   },
 }
 

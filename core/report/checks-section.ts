@@ -4,7 +4,7 @@
  * pivots of K − σM (Sylvester's law of inertia; B. N. Parlett, The Symmetric Eigenvalue
  * Problem, ch. 3, from memory).
  */
-import type { ModalAnalysis } from '../analysis/modal-analysis'
+import type { FamilyAnalysis, ModalAnalysis } from '../analysis/modal-analysis'
 import { RESIDUAL_LIMIT, type ModelWarning } from '../analysis/model-checks'
 import { escapeHtml, htmlTable, type Cell } from './html'
 import { formatFrequency, formatScientific } from './number-format'
@@ -13,14 +13,15 @@ function shiftHz(lambda: number): number {
   return Math.sqrt(Math.max(lambda, 0)) / (2 * Math.PI)
 }
 
-export function sturmResultText(analysis: ModalAnalysis): string {
+export function sturmResultText(analysis: FamilyAnalysis): string {
   const last = analysis.sturm.shifts[analysis.sturm.shifts.length - 1]
   return analysis.sturm.passed
     ? `Passed: no mode was missed. The discrete model has exactly ${analysis.modes.length} modes below ${formatFrequency(shiftHz(last ?? 0))} Hz, and each reported mode is the next one up.`
     : 'Failed: the counts below do not confirm that every mode up to the last one reported was found. Do not rely on these results; refine the mesh or report the case.'
 }
 
-export function checksSection(analysis: ModalAnalysis, warnings: readonly ModelWarning[]): string {
+export function checksSection(whole: ModalAnalysis, warnings: readonly ModelWarning[]): string {
+  const analysis = whole.families[0]
   const { sturm, reference } = analysis
   const rows: Cell[][] = sturm.shifts.map((shift, i) => [
     formatFrequency(shiftHz(shift)),

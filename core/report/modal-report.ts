@@ -51,7 +51,7 @@ function verdict(analysis: ModalAnalysis, warnings: readonly ModelWarning[]): st
       `<b>Closest pair:</b> mode ${closest.mode} at ${formatFrequency(closest.frequencyHz)} Hz against ${escapeHtml(closest.band.label)}${order}, separation ${formatSignedPercent(closest.separation)} %.`,
     )
   }
-  lines.push(`<b>Sturm count:</b> ${escapeHtml(sturmResultText(analysis))}`)
+  lines.push(`<b>Sturm count:</b> ${escapeHtml(sturmResultText(analysis.families[0]))}`)
   if (warnings.length) {
     lines.push(`<b>Model checks:</b> <span class="status-conflict">${warnings.length} warning${warnings.length === 1 ? '' : 's'}</span> about the trust in these results; see section 6.`)
   }
@@ -61,7 +61,7 @@ function verdict(analysis: ModalAnalysis, warnings: readonly ModelWarning[]): st
     lines.push(`<b>Accuracy:</b> largest relative error of a reported frequency against the exact solution ${formatRelativeError(largest)}.`)
   }
   lines.push('<b>Use:</b> an engineering aid. Verify on the real part and read the assumptions and cautions (section 7) before relying on these results.')
-  const alarm = conflicts.length > 0 || warnings.length > 0 || !analysis.sturm.passed
+  const alarm = conflicts.length > 0 || warnings.length > 0 || !analysis.sturmPassed
   return `<div class="verdict${alarm ? ' has-conflict' : ''}">${lines.map((l) => `<p>${l}</p>`).join('\n')}</div>`
 }
 

@@ -68,8 +68,8 @@ export function modelSection(project: Project, units: ReportUnits, barDrawing: s
   )
 
   const ends = keyValueTable([
-    ['Start, x = 0', escapeHtml(END_TEXT[project.ends.start])],
-    [`End, x = ${units.withUnit('length', bounds[bounds.length - 1])}`, escapeHtml(END_TEXT[project.ends.end])],
+    ['Start, x = 0', escapeHtml(END_TEXT[project.ends.start.axial])],
+    [`End, x = ${units.withUnit('length', bounds[bounds.length - 1])}`, escapeHtml(END_TEXT[project.ends.end.axial])],
   ])
 
   const masses = project.masses.length

@@ -17,7 +17,7 @@ function stressPerDisplacementUnit(units: ReportUnits): string {
 }
 
 export function modesSection(analysis: ModalAnalysis, units: ReportUnits, modeShapeChart: string, chartModes: readonly number[]): string {
-  const hasReference = analysis.reference.method === 'exact'
+  const hasReference = analysis.families.some((f) => f.reference.method === 'exact')
   const hasEffectiveMass = analysis.modes.some((m) => m.effectiveMass !== null)
   const rows: Cell[][] = analysis.modes.map((m) => [
     { html: `${m.mode}${m.rigidBody ? ' <span class="tag">rigid body</span>' : ''}` },

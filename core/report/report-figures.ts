@@ -34,8 +34,9 @@ const MODE_SHAPE_CHART_WIDTH = 880
 
 export function reportFigures(analysis: ModalAnalysis, convergence: ConvergenceStudy | undefined): ReportFigures {
   const units = analysis.project.units
-  const shown = analysis.modes.slice(0, MODE_SHAPE_CHART_MODES).map((_, i) => i)
-  const modeShapes = renderChartSvg(modeShapeChartOption(modeShapeChartData(analysis, shown), { interactive: false, units }), { width: MODE_SHAPE_CHART_WIDTH, height: 540 })
+  const primary = analysis.families[0]
+  const shown = primary.modes.slice(0, MODE_SHAPE_CHART_MODES).map((_, i) => i)
+  const modeShapes = renderChartSvg(modeShapeChartOption(modeShapeChartData(primary, shown), { interactive: false, units }), { width: MODE_SHAPE_CHART_WIDTH, height: 540 })
   const convergenceFigures: ConvergenceFigure[] = []
   // Without an exact solution there is no error to plot; the tables then give the frequencies themselves.
   if (convergence && convergence.referenceMethod === 'exact') {

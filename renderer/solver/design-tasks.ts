@@ -4,7 +4,7 @@
  * functions over core: run by the worker and, where no worker exists, in the page. Results are
  * structured-clone safe.
  */
-import { analyseProject, type ModalAnalysis } from '../../core/analysis/modal-analysis'
+import { analyseProject, type FamilyAnalysis, type ModeResult } from '../../core/analysis/modal-analysis'
 import { designParameters, type DesignParameter } from '../../core/analysis/design-parameters'
 import { frequencySensitivities, type Sensitivity } from '../../core/analysis/sensitivity'
 import { scatterFrequencies } from '../../core/analysis/tolerance-scatter'
@@ -38,11 +38,13 @@ export interface ScatterShareRun {
   readonly modes: number
 }
 
+export type NominalMode = Pick<ModeResult, 'mode' | 'motion' | 'plane' | 'family' | 'frequencyHz'>
+
 export interface ScatterShare {
   /** Row-major count × modes, Hz. */
   readonly frequencies: Float64Array
-  /** The finite-element frequencies of the nominal part on the same mesh. */
-  readonly nominalHz: number[]
+  /** The nominal part's modes (finite-element frequencies on the same mesh), every family in order. */
+  readonly nominal: NominalMode[]
   readonly modes: number
 }
 
@@ -62,7 +64,7 @@ export function scatterShareTask(project: Project, run: ScatterShareRun, onProgr
     frequencies.set(scatterFrequencies(project, { seed: run.seed, start: run.start + done, count, modes: run.modes }, nominal), done * modes)
     onProgress?.((done + count) / run.count)
   }
-  return { frequencies, nominalHz: nominal.modes.map((m) => m.frequencyHz), modes }
+  return { frequencies, nominal: nominal.modes.map(({ mode, motion, plane, family, frequencyHz }) => ({ mode, motion, plane, family, frequencyHz })), modes }
 }
 
 export type FrequencyAxis = 'linear' | 'log'
@@ -155,11 +157,11 @@ export function bandPeak(model: ReceptanceModel, band: readonly [number, number]
 }
 
 // The worker keeps the last solved part: changing the range, the points or the damping needs no new solve.
-let cached: { key: string; analysis: ModalAnalysis } | null = null
+let cached: { key: string; analysis: FamilyAnalysis } | null = null
 
-function analysisOf(project: Project): ModalAnalysis {
+function analysisOf(project: Project): FamilyAnalysis {
   const key = partKey(project)
-  if (cached?.key !== key) cached = { key, analysis: analyseProject(project, {}, { withReference: false }) }
+  if (cached?.key !== key) cached = { key, analysis: analyseProject(project, {}, { withReference: false }).families[0] }
   return cached.analysis
 }
 

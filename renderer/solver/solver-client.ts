@@ -16,6 +16,7 @@ import {
   sensitivityTask,
   type ResponseResult,
   type ResponseTaskRequest,
+  type NominalMode,
   type ScatterShare,
   type SensitivityTable,
 } from './design-tasks'
@@ -53,7 +54,7 @@ export interface ScatterRequest {
 export interface ScatterOutcome {
   /** Row-major samples × modes, Hz. */
   readonly frequencies: Float64Array
-  readonly nominalHz: number[]
+  readonly nominal: NominalMode[]
   readonly modes: number
   readonly samples: number
   readonly seed: number
@@ -75,7 +76,7 @@ export interface SolverClient {
 function scatterOutcome(parts: readonly ScatterShare[], request: ScatterRequest): ScatterOutcome {
   return {
     frequencies: joinShares(parts.map((p) => p.frequencies)),
-    nominalHz: parts[0]?.nominalHz ?? [],
+    nominal: parts[0]?.nominal ?? [],
     modes: parts[0]?.modes ?? request.modes,
     samples: request.samples,
     seed: request.seed,

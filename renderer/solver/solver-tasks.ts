@@ -10,7 +10,6 @@ import {
   modalSummaryCsv,
   type AnalysisSettings,
   type ConvergenceStudy,
-  type ExactReference,
   type MassMatrixKind,
   type ModeResult,
   type Project,
@@ -19,6 +18,7 @@ import {
 import { modelWarnings, type ModelWarning } from '../../core/analysis/model-checks'
 import { modeShapeChartData, type ModeShapeChartData } from '../../core/charts/mode-shape-chart'
 import { modalReportHtml } from '../../core/report/modal-report'
+import type { FamilyReference } from '../../core/exact/family-reference'
 
 export interface SolvedModel {
   /** The project these results belong to, as solved. */
@@ -26,7 +26,7 @@ export interface SolvedModel {
   readonly settings: AnalysisSettings
   readonly modes: ModeResult[]
   readonly resonance: ResonancePair[]
-  readonly reference: ExactReference
+  readonly reference: FamilyReference
   readonly totals: { length: number; mass: number; elements: number; dofs: number }
   readonly sturmPassed: boolean
   readonly solveMs: number
@@ -45,11 +45,11 @@ export function solveTask(project: Project): SolvedModel {
     settings: analysis.settings,
     modes: analysis.modes,
     resonance: analysis.resonance,
-    reference: analysis.reference,
+    reference: analysis.families[0].reference,
     totals: analysis.totals,
-    sturmPassed: analysis.sturm.passed,
+    sturmPassed: analysis.sturmPassed,
     solveMs: analysis.timing.assembleMs + analysis.timing.solveMs + analysis.timing.referenceMs,
-    shapes: modeShapeChartData(analysis),
+    shapes: modeShapeChartData(analysis.families[0]),
     summaryCsv: modalSummaryCsv(analysis),
     modelWarnings: modelWarnings(analysis),
   }

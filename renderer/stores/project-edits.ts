@@ -117,7 +117,7 @@ export function setSectionDimension(project: Project, index: number, key: string
 }
 
 export function setEnd(project: Project, end: 'start' | 'end', condition: EndCondition): void {
-  project.ends[end] = condition
+  project.ends[end].axial = condition
 }
 
 /** A new project material, starting from carbon steel's handbook values. */
@@ -159,7 +159,7 @@ export type AttachmentList = 'masses' | 'springs'
 /** A new attachment at the free end (or the bar's end), a plausible size to edit. */
 export function addAttachment(project: Project, list: AttachmentList): void {
   const length = safe(() => totalLength(project.segments))
-  const at = project.ends.end === 'free' || !Number.isFinite(length) ? (Number.isFinite(length) ? length : 0) : length / 2
+  const at = project.ends.end.axial === 'free' || !Number.isFinite(length) ? (Number.isFinite(length) ? length : 0) : length / 2
   if (list === 'masses') project.masses.push({ at, mass: 1, label: `Mass ${project.masses.length + 1}` })
   else project.springs.push({ at, stiffness: 1e7, label: `Spring ${project.springs.length + 1}` })
 }

@@ -28,8 +28,8 @@ export type ResponseField = 'forceAt' | 'responseAt' | 'fromHz' | 'toHz' | 'poin
 /** Where a point load and read-out go by default: the free end, or mid-span when both ends are fixed. */
 export function defaultResponsePoint(project: Pick<Project, 'segments' | 'ends'>): number {
   const length = totalLength(project.segments)
-  if (project.ends.end === 'free') return length
-  if (project.ends.start === 'free') return 0
+  if (project.ends.end.axial === 'free') return length
+  if (project.ends.start.axial === 'free') return 0
   return length / 2
 }
 

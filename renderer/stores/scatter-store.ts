@@ -7,6 +7,7 @@
 import { defineStore } from 'pinia'
 import { computed, ref, shallowRef } from 'vue'
 import { scatterQuantiles, type ScatterQuantiles } from '../../core/analysis/tolerance-scatter'
+import { modeKey } from '../../core/analysis/resonance'
 import type { Project, Tolerances } from '../../core/model/project'
 import { useSolver, type ScatterOutcome } from '../solver/solver-client'
 import { useCancellableJob } from '../composables/cancellable-job'
@@ -58,10 +59,10 @@ export const useScatterStore = defineStore('scatter', () => {
   })
 
   /** Per mode number, the 5 % and 95 % frequencies, when the scatter was run on this project's part and tolerances. */
-  function bandsFor(solved: Project): Map<number, readonly [number, number]> | null {
+  function bandsFor(solved: Project): Map<string, readonly [number, number]> | null {
     const s = summary.value
     if (!s || s.key !== scatterKey(solved)) return null
-    return new Map(s.quantiles.map((q) => [q.mode, [q.p05, q.p95] as const]))
+    return new Map(s.quantiles.map((q) => [modeKey(q), [q.p05, q.p95] as const]))
   }
 
   async function run(): Promise<void> {
@@ -84,7 +85,7 @@ export const useScatterStore = defineStore('scatter', () => {
       (outcome) => {
         summary.value = {
           key,
-          quantiles: scatterQuantiles(outcome.frequencies, outcome.modes, outcome.nominalHz),
+          quantiles: scatterQuantiles(outcome.frequencies, outcome.nominal),
           samples: outcome.samples,
           seed: outcome.seed,
           workers: outcome.workers,

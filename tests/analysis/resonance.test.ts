@@ -9,6 +9,9 @@ import { analyseProject } from '../../core/analysis/modal-analysis'
 import { modalSummaryCsv, MODAL_SUMMARY_COLUMNS, solveDocument } from '../../core/analysis/modal-summary'
 import { makeProject, uniformBar } from '../helpers'
 
+/** Modes of axial motion, as the analysis labels them. */
+const AXIAL = { motion: 'axial', plane: null, family: 'axial' } as const
+
 describe('bands', () => {
   test('a speed range with orders: [rpm_min·n, rpm_max·n]/60', () => {
     // 1450–1490 rpm: ×1 → 24.1667–24.8333 Hz; ×2 → 48.3333–49.6667 Hz; ×7 → 169.1667–173.8333 Hz.
@@ -23,7 +26,7 @@ describe('bands', () => {
     const [speed, line] = excitationBands([{ rpm: 3000, orders: [2] }, { label: 'Line', hz: 100 }])
     expect(speed.hz).toEqual([100, 100])
     expect(speed.label).toBe('Excitation 1')
-    expect(line).toEqual({ excitationIndex: 1, label: 'Line', order: null, hz: [100, 100] })
+    expect(line).toEqual({ excitationIndex: 1, label: 'Line', order: null, hz: [100, 100], excites: ['axial', 'torsion', 'bending'] })
   })
 })
 
@@ -46,7 +49,7 @@ describe('separation and status', () => {
     expect(statusOf(0, 0.15)).toBe('conflict')
   })
   test('hz and rpm excitations give the same separation for the same frequency', () => {
-    const modes = [{ mode: 1, frequencyHz: 56, rigidBody: false }]
+    const modes = [{ ...AXIAL, mode: 1, frequencyHz: 56, rigidBody: false }]
     const byRpm = resonancePairs(modes, { excitations: [{ rpm: 3000, orders: [1] }], margin: 0.15 })
     const byHz = resonancePairs(modes, { excitations: [{ hz: 50 }], margin: 0.15 })
     // (56 − 50)/50 = 0.12 → conflict at 15 %.
@@ -56,18 +59,18 @@ describe('separation and status', () => {
   })
   test('every elastic mode meets every band; rigid-body modes are skipped; the closest pair is found', () => {
     const modes = [
-      { mode: 1, frequencyHz: 0, rigidBody: true },
-      { mode: 2, frequencyHz: 300, rigidBody: false },
-      { mode: 3, frequencyHz: 900, rigidBody: false },
+      { ...AXIAL, mode: 1, frequencyHz: 0, rigidBody: true },
+      { ...AXIAL, mode: 2, frequencyHz: 300, rigidBody: false },
+      { ...AXIAL, mode: 3, frequencyHz: 900, rigidBody: false },
     ]
     const pairs = resonancePairs(modes, { excitations: [{ rpm: [2900, 3000], orders: [1, 6] }, { hz: 120 }], margin: 0.1 })
     expect(pairs.length).toBe(2 * 3)
     // Mode 3 against ×6 at 290–300 Hz: nearest 300, (900 − 300)/300 = 2; against 120 Hz: 6.5; against ×1 (48.3–50 Hz): 17.
-    const closest = closestPair(pairs, 2)!
+    const closest = closestPair(pairs, { family: 'axial', mode: 2 })!
     // Mode 2 against ×6: 300 Hz lies inside 290–300 Hz → 0.
     expect(closest.separation).toBe(0)
     expect(closest.band.order).toBe(6)
-    expect(closestPair(pairs, 3)!.separation).toBeCloseTo(2, 12)
+    expect(closestPair(pairs, { family: 'axial', mode: 3 })!.separation).toBeCloseTo(2, 12)
   })
 })
 
@@ -105,9 +108,9 @@ describe('on a solved part', () => {
 describe('with tolerance bands', () => {
   test('a mode band overlapping the excitation is a conflict; otherwise the nearest points count', () => {
     // Mode band 95–105 Hz against 110 Hz: nearest points 105 and 110, (105 − 110)/110 = −0.04545.
-    const modes = [{ mode: 1, frequencyHz: 100, rigidBody: false }]
+    const modes = [{ ...AXIAL, mode: 1, frequencyHz: 100, rigidBody: false }]
     const project = { excitations: [{ hz: 110 }, { hz: 102 }], margin: 0.05 }
-    const pairs = resonancePairs(modes, project, new Map([[1, [95, 105] as [number, number]]]))
+    const pairs = resonancePairs(modes, project, new Map([['axial 1', [95, 105] as [number, number]]]))
     expect(pairs[0].separation).toBeCloseTo(-5 / 110, 14)
     expect(pairs[0].status).toBe('conflict')
     // 102 Hz lies inside 95–105 Hz: separation 0.

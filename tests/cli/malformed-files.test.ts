@@ -48,7 +48,7 @@ export const CORPUS: [string, string, string][] = [
   ['absurdly large diameter', mutated((d) => (d.segments[0].section.diameter = 1e308)), 'segments[0].section.diameter: must be at most 100 m'],
   ['absurdly small modulus', mutated((d) => (d.materials[0].youngsModulus = 1e-300)), 'materials[0].youngsModulus: must be at least 1000 Pa'],
   ['unknown shape', mutated((d) => (d.segments[0].section = { shape: 'hexagon', across: 0.02 })), 'segments[0].section.shape: must be one of'],
-  ['unknown end condition', mutated((d) => (d.ends.start = 'pinned')), 'ends.start: must be one of: "fixed", "free"'],
+  ['unknown end condition', mutated((d) => (d.ends.start = 'pinned')), 'ends.start: must be "fixed" or "free" (the axial condition), or an object with axial, torsion and bending conditions'],
   ['dangling material id', mutated((d) => (d.segments[1].material = 'steel-x')), 'segments[1].material: "steel-x" is neither in materials nor in the built-in library'],
   ['bore bigger than the outside', mutated((d) => (d.segments[1].section.innerDiameter = 0.04)), 'segments[1].section.innerDiameter: must be smaller than outerDiameter'],
   ['mass off the bar', mutated((d) => (d.masses[0].at = 2)), 'masses[0].at: must lie on the bar'],

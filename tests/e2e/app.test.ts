@@ -271,8 +271,8 @@ describe('design guidance in a browser', () => {
     await page.click('[data-testid="scatter-run"]')
     await page.waitForSelector('[data-testid="scatter-row-1"]', { timeout: 60_000 })
     const project = demo()
-    const nominal = analyseProject(project, {}, { withReference: false }).modes.map((m) => m.frequencyHz)
-    const quantiles = scatterQuantiles(scatterFrequencies(project, { seed: 1, start: 0, count: 500, modes: project.analysis.modes }), project.analysis.modes, nominal)
+    const nominal = analyseProject(project, {}, { withReference: false }).modes
+    const quantiles = scatterQuantiles(scatterFrequencies(project, { seed: 1, start: 0, count: 500, modes: project.analysis.modes }), nominal)
     for (const q of quantiles) {
       const cells = (await page.locator(`[data-testid="scatter-row-${q.mode}"] td`).allTextContents()).map((t) => t.trim())
       expect(cells.slice(1, 5), `mode ${q.mode}`).toEqual([q.nominalHz, q.p05, q.p50, q.p95].map((f) => formatFigure(f, 5)))

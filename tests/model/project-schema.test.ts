@@ -52,7 +52,7 @@ describe('each rule names the field', () => {
     ['unknown material', (d: any) => (d.segments[1].material = 'unobtainium'), 'segments[1].material: "unobtainium" is neither in materials nor in the built-in library'],
     ['duplicate material id', (d: any) => d.materials.push({ id: 'st', youngsModulus: 1e11, density: 7000 }), 'materials[1].id: "st" is already used by materials[0]'],
     ['non-positive modulus', (d: any) => (d.materials[0].youngsModulus = 0), 'materials[0].youngsModulus: must be > 0'],
-    ['unknown end condition', (d: any) => (d.ends.end = 'pinned'), 'ends.end: must be one of: "fixed", "free"'],
+    ['unknown end condition', (d: any) => (d.ends.end = 'pinned'), 'ends.end: must be "fixed" or "free" (the axial condition), or an object with axial, torsion and bending conditions'],
     ['mass off the bar', (d: any) => (d.masses = [{ at: 1.6, mass: 1 }]), 'masses[0].at: must lie on the bar, between 0 and its length 1.5 m'],
     ['negative spring position', (d: any) => (d.springs = [{ at: -0.1, stiffness: 1e6 }]), 'springs[0].at: must be ≥ 0'],
     ['zero spring stiffness', (d: any) => (d.springs = [{ at: 0.1, stiffness: 0 }]), 'springs[0].stiffness: must be > 0'],
@@ -93,7 +93,7 @@ describe('file-level problems', () => {
     ['{"format": "rodwave",', '(file): is not valid JSON'],
     ['[1, 2]', '(file): must be a JSON object (a Rodwave project)'],
     ['{"format": "other", "version": 1}', 'format: must be "rodwave": this is not a Rodwave project file'],
-    ['{"format": "rodwave", "version": 2}', 'version: this file is format version 2, written by a newer Rodwave; this one reads versions up to 1'],
+    ['{"format": "rodwave", "version": 3}', 'version: this file is format version 3, written by a newer Rodwave; this one reads versions up to 2'],
     ['{"format": "rodwave", "version": 0}', 'version: unknown format version 0'],
     ['{"format": "rodwave", "version": "1"}', 'version: must be a whole number'],
   ])('%j', (text, expected) => {

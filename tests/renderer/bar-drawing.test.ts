@@ -5,7 +5,7 @@
  */
 import { describe, expect, it } from 'vitest'
 import { barDrawing, barDrawingSvg, DARK_DRAWING_THEME, placeInRows, type DrawingShape } from '../../core/drawing/bar-drawing'
-import type { Project } from '../../core/model/project'
+import { partEnd, type Project } from '../../core/model/project'
 
 type Bar = Pick<Project, 'segments' | 'ends' | 'masses' | 'springs' | 'units' | 'title'>
 
@@ -17,7 +17,7 @@ const STEPPED: Bar = {
     { length: 0.4, material: 'carbon-steel', section: { shape: 'tube', outerDiameter: 0.05, innerDiameter: 0.03 } },
     { length: 0.6, material: 'carbon-steel', section: { shape: 'cone', startDiameter: 0.04, endDiameter: 0.02 } },
   ],
-  ends: { start: 'fixed', end: 'fixed' },
+  ends: { start: partEnd('fixed'), end: partEnd('fixed') },
   masses: [{ at: 2.2, mass: 5, label: 'clamp <A&B>' }],
   springs: [{ at: 1, stiffness: 2e7, label: 'guide' }],
 }
@@ -66,7 +66,7 @@ describe('bar drawing', () => {
   })
 
   it('draws a free end without a wall and a short, thick part to true scale', () => {
-    const short = barDrawing({ ...STEPPED, ends: { start: 'fixed', end: 'free' }, segments: [{ length: 0.1, material: 'm', section: { shape: 'solid', diameter: 0.1 } }], masses: [], springs: [] })
+    const short = barDrawing({ ...STEPPED, ends: { start: partEnd('fixed'), end: partEnd('free') }, segments: [{ length: 0.1, material: 'm', section: { shape: 'solid', diameter: 0.1 } }], masses: [], springs: [] })
     expect(short.shapes.filter((s) => s.role === 'support')).toHaveLength(1)
     expect(short.layout.exaggeration).toBe(1)
     expect(short.scaleNote).toBe('Drawn to scale')

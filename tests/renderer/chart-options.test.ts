@@ -120,14 +120,17 @@ describe('warning sentences', () => {
   it('say which mode, how far, above or below which excitation', () => {
     const pair: ResonancePair = {
       mode: 1,
+      motion: 'axial',
+      plane: null,
+      family: 'axial',
       frequencyHz: 106.356,
-      band: { excitationIndex: 1, label: 'Motor twice line frequency', order: null, hz: [100, 100] },
+      band: { excitationIndex: 1, label: 'Motor twice line frequency', order: null, hz: [100, 100], excites: ['axial'] },
       separation: 0.06356,
       status: 'conflict',
     }
     expect(pairSentence(pair)).toBe('Mode 1 at 106 Hz is 6.4 % above Motor twice line frequency (100 Hz)')
     expect(pairSentence({ ...pair, frequencyHz: 95, separation: -0.05 })).toBe('Mode 1 at 95 Hz is 5 % below Motor twice line frequency (100 Hz)')
-    const band = { excitationIndex: 0, label: 'Pump', order: 2, hz: [98.6667, 99.6667] as const }
+    const band = { excitationIndex: 0, label: 'Pump', order: 2, hz: [98.6667, 99.6667] as const, excites: ['axial' as const] }
     expect(pairSentence({ ...pair, frequencyHz: 99, separation: 0, band })).toBe('Mode 1 at 99 Hz lies inside Pump ×2 (98.67–99.67 Hz, 2960–2990 rpm)')
   })
 })
@@ -135,7 +138,7 @@ describe('warning sentences', () => {
 describe('mode shapes', () => {
   it('scales each mode to a peak of 1; a uniform fixed–free bar’s first mode is sin(πx/2L)', () => {
     const analysis = analyseProject(UNIFORM)
-    const data = modeShapeChartData(analysis, [0])
+    const data = modeShapeChartData(analysis.families[0], [0])
     const curve = data.curves[0]
     expect(Math.max(...curve.displacement.map(Math.abs))).toBeCloseTo(1, 12)
     let worst = 0
@@ -154,14 +157,14 @@ describe('mode shapes', () => {
       ],
       analysis: { elementOrder: 1, elementsPerSegment: 3000, mass: 'consistent', modes: 2 },
     })
-    const curve = modeShapeChartData(analyseProject(fine), [0], 500).curves[0]
+    const curve = modeShapeChartData(analyseProject(fine).families[0], [0], 500).curves[0]
     expect(curve.x.length).toBeLessThanOrEqual(520)
     expect(curve.x).toContain(1)
     expect(curve.x.at(-1)).toBeCloseTo(1.5, 12)
   })
 
   it('gives stress per peak displacement in MPa/mm (SI) or psi/in (US)', () => {
-    const data = modeShapeChartData(analyseProject(UNIFORM), [0])
+    const data = modeShapeChartData(analyseProject(UNIFORM).families[0], [0])
     const si = modeShapeChartOption(data, { interactive: false, units: 'SI' })
     const us = modeShapeChartOption(data, { interactive: false, units: 'US' })
     const lower = (o: typeof si) => ((o.series as LineSeriesOption[]).filter((s) => s.yAxisIndex === 1 && s.name !== 'Segment boundaries')[0].data as number[][])[0][1]

@@ -75,14 +75,14 @@ describe('interference diagram with tolerance bands', () => {
   const excitations: Excitation[] = [{ label: 'Line', hz: 100 }]
   const margin = 0.1
   const modes = [
-    { mode: 1, frequencyHz: 112, rigidBody: false, referenceHz: 112 },
-    { mode: 2, frequencyHz: 300, rigidBody: false, referenceHz: 300 },
+    { mode: 1, motion: 'axial' as const, plane: null, family: 'axial' as const, frequencyHz: 112, rigidBody: false, referenceHz: 112 },
+    { mode: 2, motion: 'axial' as const, plane: null, family: 'axial' as const, frequencyHz: 300, rigidBody: false, referenceHz: 300 },
   ]
-  const bands = new Map<number, readonly [number, number]>([
-    [1, [106, 118]],
-    [2, [290, 310]],
+  const bands = new Map<string, readonly [number, number]>([
+    ['axial 1', [106, 118]],
+    ['axial 2', [290, 310]],
   ])
-  const scatter = [...bands].map(([mode, [p05, p95]]) => ({ mode, p05, p95 }))
+  const scatter = [...bands].map(([key, [p05, p95]]) => ({ mode: Number(key.split(' ')[1]), family: 'axial' as const, p05, p95 }))
   const banded = resonancePairs(modes, { excitations, margin }, bands)
   const nominal = resonancePairs(modes, { excitations, margin })
   const series = (pairs: ResonancePair[], hzMax = 400) =>

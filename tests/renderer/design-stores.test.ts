@@ -153,7 +153,7 @@ describe('tolerance scatter shared between workers', () => {
     expect(one.workers).toBe(1)
     expect(two.workers).toBe(2)
     expect(Array.from(two.frequencies)).toEqual(Array.from(one.frequencies))
-    const quantiles = (o: typeof one) => scatterQuantiles(o.frequencies, o.modes, o.nominalHz)
+    const quantiles = (o: typeof one) => scatterQuantiles(o.frequencies, o.nominal)
     expect(quantiles(two)).toEqual(quantiles(one))
     const whole = scatterFrequencies(project, { seed: 7, start: 0, count: 41, modes: 3 })
     expect(Array.from(one.frequencies)).toEqual(Array.from(whole))

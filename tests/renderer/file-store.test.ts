@@ -83,7 +83,7 @@ describe('file store', () => {
     expect(files.confirmation?.message).toContain('not saved')
     files.confirmation!.resolve(false)
     await starting
-    expect(project.draft.ends.end).toBe('fixed')
+    expect(project.draft.ends.end.axial).toBe('fixed')
   })
 
   it('opens a good file and solves it', async () => {
@@ -152,7 +152,7 @@ describe('file store', () => {
     project.edit((p) => edits.setEnd(p, 'end', 'fixed'))
     bridge.menu('undo')
     await settle()
-    expect(project.draft.ends.end).toBe('free')
+    expect(project.draft.ends.end.axial).toBe('free')
     // The same command twice at once (menu accelerator and key together) runs once.
     await new Promise((resolve) => setTimeout(resolve, 350))
     project.edit((p) => edits.setEnd(p, 'end', 'fixed'))
@@ -160,7 +160,7 @@ describe('file store', () => {
     bridge.menu('undo')
     bridge.menu('undo')
     await settle()
-    expect(project.draft.ends).toEqual({ start: 'fixed', end: 'fixed' })
+    expect([project.draft.ends.start.axial, project.draft.ends.end.axial]).toEqual(['fixed', 'fixed'])
     bridge.menu('cautions')
     expect(useViewStore().cautionsOpen).toBe(true)
   })

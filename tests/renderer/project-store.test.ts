@@ -78,9 +78,9 @@ describe('project store', () => {
     // Typing "0.7" into one field: three keystrokes, one step.
     for (const v of [0, 0.7, 0.75]) store.edit((p) => edits.setSegmentLength(p, 2, v), 'segments[2].length')
     store.edit((p) => edits.setEnd(p, 'end', 'fixed'))
-    expect(store.draft.ends.end).toBe('fixed')
+    expect(store.draft.ends.end.axial).toBe('fixed')
     store.undo()
-    expect(store.draft.ends.end).toBe('free')
+    expect(store.draft.ends.end.axial).toBe('free')
     expect(store.draft.segments[2].length).toBe(0.75)
     store.undo()
     expect(store.draftText).toBe(original)
@@ -88,7 +88,7 @@ describe('project store', () => {
     store.redo()
     expect(store.draft.segments[2].length).toBe(0.75)
     store.redo()
-    expect(store.draft.ends.end).toBe('fixed')
+    expect(store.draft.ends.end.axial).toBe('fixed')
     expect(store.canRedo).toBe(false)
   })
 

@@ -110,8 +110,8 @@ describe.each(EXAMPLES)('%s', (file) => {
     const warnings = modelWarnings(analysis)
     expect([...doc.querySelectorAll('ul.model-warnings li')].map((li) => li.textContent)).toEqual(warnings.map((w) => w.message))
     expect(doc.querySelector('.model-checks-passed') !== null).toBe(warnings.length === 0)
-    expect(doc.querySelectorAll('table.sturm tbody tr').length).toBe(analysis.sturm.shifts.length)
-    expect(doc.querySelector('.reference-method')?.textContent).toContain(analysis.reference.formulation!)
+    expect(doc.querySelectorAll('table.sturm tbody tr').length).toBe(analysis.families[0].sturm.shifts.length)
+    expect(doc.querySelector('.reference-method')?.textContent).toContain(analysis.families[0].reference.formulation!)
     const assumptions = [...doc.querySelectorAll('ul.assumptions li')].map((li) => li.textContent)
     expect(assumptions).toEqual([...ASSUMPTIONS])
     const cautions = doc.querySelector('#cautions')?.textContent ?? ''
@@ -341,7 +341,8 @@ describe('special cases', () => {
 
   test('a failed Sturm count is reported as failed, in the summary and in the checks', () => {
     const analysis = analyseProject(uniformBar(), { modes: 3 })
-    const failed: ModalAnalysis = { ...analysis, sturm: { ...analysis.sturm, counts: [1, 1, 3], passed: false } }
+    const family = analysis.families[0]
+    const failed: ModalAnalysis = { ...analysis, sturmPassed: false, families: [{ ...family, sturm: { ...family.sturm, counts: [1, 1, 3], passed: false } }] }
     const { doc } = render(failed)
     expect(doc.querySelector('.sturm-result')?.textContent).toMatch(/^Failed/)
     expect(doc.querySelector('.verdict')?.textContent).toContain('Failed')
