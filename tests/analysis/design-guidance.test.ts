@@ -1,15 +1,16 @@
 /**
  * Design guidance against closed forms and independent computations:
  * - a uniform bar's f ∝ c/L = √(E/ρ)/L gives relative sensitivities −1 to length, +½ to E,
- *   −½ to density, 0 to a solid section's diameter (check-values.md §1);
+ *   −½ to density, 0 to a solid section's diameter (docs/verification.md §1);
  * - on stepped, loaded models, the analytic sensitivities against central differences of the
  *   exact piecewise solver (an independent route: re-solving perturbed parts);
- * - the tuner against L = c/(4f) for a fixed–free bar (check-values.md §1);
+ * - the tuner against L = c/(4f) for a fixed–free bar (docs/verification.md §1), and its
+ *   separation goal against optima in closed form (§10);
  * - scatter quantiles against the analytic quantiles of f ∝ √E for a tolerance on E alone:
- *   with E = E₀(1 + t(2U − 1)), U uniform, the q-quantile is f₀ √(1 + t(2q − 1));
+ *   with E = E₀(1 + t(2U − 1)), U uniform, the q-quantile is f₀ √(1 + t(2q − 1)) (§12);
  * - the receptance's static limit L/(EA) at the tip of a uniform fixed–free bar, and its peak
  *   near f₁, ≈ φ₁(L)² / (2ζω₁²) with φ₁(L)² = 2/m for mass-normalised modes (Rao, Mechanical
- *   Vibrations, continuous systems and forced response, from memory).
+ *   Vibrations, continuous systems and forced response, from memory; §11).
  */
 import { describe, expect, test } from 'vitest'
 import { designParameters, withParameter, withSegmentLength } from '../../core/analysis/design-parameters'
