@@ -50,14 +50,14 @@ export interface ModeChecks {
   readonly worstPair: readonly [number, number] | null
 }
 
-/** Unknowns per block of the checks' sweep: the block's Mφ of 60 modes (480 KB) stays in cache. */
+/** Unknowns per block of the checks' sweep: the block's Mφ of the checked modes (60 × 8 KB) stays in cache. */
 const BLOCK = 1024
 
 /**
  * Backward errors and M-orthogonality in one sweep over the unknowns, block by block: per block,
  * Kφ and Mφ of every mode row by row (difference form, as multiplyBand), then the products
  * φⱼᵀ(Mφᵢ), j < i, four at a time. Each vector is read from memory about once, and the scratch
- * (one block of Mφ per checked mode) is allocated once.
+ * (one block of Mφ per checked mode, one more for the rest) is allocated once.
  */
 export function modeChecks(analysis: ModalAnalysis): ModeChecks {
   const { stiffness, mass } = analysis.model.pencil
@@ -69,19 +69,21 @@ export function modeChecks(analysis: ModalAnalysis): ModeChecks {
   const residual = new Float64Array(modes)
   const largest = new Float64Array(modes)
   const products = new Float64Array(checked * checked)
-  const massBlock = new Float64Array(Math.max(modes, 1) * BLOCK)
+  // Slot i < checked keeps mode i's Mφ for the products; the modes beyond share the last slot.
+  const massBlock = new Float64Array((checked + 1) * BLOCK)
   const tridiagonal = stiffness.halfBandwidth === 1 && mass.halfBandwidth === 1
   for (let start = 0; start < n; start += BLOCK) {
     const end = Math.min(n, start + BLOCK)
     for (let i = 0; i < modes; i++) {
-      const out = massBlock.subarray(i * BLOCK, i * BLOCK + (end - start))
+      const slot = Math.min(i, checked) * BLOCK
+      const out = massBlock.subarray(slot, slot + (end - start))
       const block = tridiagonal
         ? tridiagonalRows(stiffness, mass, vectors[i], lambdas[i], start, end, out)
         : bandRows(stiffness, mass, vectors[i], lambdas[i], start, end, out)
       if (block.residual > residual[i]) residual[i] = block.residual
       if (block.largest > largest[i]) largest[i] = block.largest
     }
-    for (let i = 1; i < checked; i++) accumulateProducts(vectors, i, massBlock.subarray(i * BLOCK, i * BLOCK + (end - start)), start, products)
+    for (let i = 1; i < checked; i++) accumulateProducts(vectors, i, massBlock.subarray(i * BLOCK, i * BLOCK + (end - start)), start, products, checked)
   }
   const kNorm = bandInfinityNorm(stiffness)
   const mNorm = bandInfinityNorm(mass)
@@ -93,21 +95,20 @@ export function modeChecks(analysis: ModalAnalysis): ModeChecks {
   let worstPair: [number, number] | null = null
   for (let i = 1; i < checked; i++) {
     for (let j = 0; j < i; j++) {
+      // A NaN product (a broken vector) counts as the worst possible.
       const p = Math.abs(products[i * checked + j])
-      if (p > worstProduct || Number.isNaN(p)) {
-        worstProduct = p
+      const size = Number.isNaN(p) ? Infinity : p
+      if (size > worstProduct) {
+        worstProduct = size
         worstPair = [j + 1, i + 1]
-        if (Number.isNaN(p)) break
       }
     }
-    if (Number.isNaN(worstProduct)) break
   }
   return { backwardErrors, limit: backwardErrorLimit(n, stiffness.halfBandwidth), worstProduct, worstPair }
 }
 
 /** products[i·count + j] += φⱼᵀy over [start, start + y.length) for every j < i, four modes per pass over y. */
-function accumulateProducts(vectors: Float64Array[], i: number, y: Float64Array, start: number, products: Float64Array): void {
-  const count = Math.sqrt(products.length)
+function accumulateProducts(vectors: Float64Array[], i: number, y: Float64Array, start: number, products: Float64Array, count: number): void {
   const length = y.length
   let j = 0
   for (; j + 4 <= i; j += 4) {

@@ -134,6 +134,16 @@ describe('genuinely wrong modes are flagged', () => {
     expect(modelWarnings(wrong).filter((w) => w.code === 'residual').map((w) => w.message.slice(0, 7))).toEqual(['Mode 1 '])
   })
 
+  test('beyond the 60 modes checked for orthogonality (3-node mesh, 70 modes): none flagged, then mode 65 perturbed is', () => {
+    const many = analyseProject(uniformBar({ length: 1 }), { elementOrder: 2, elementsPerSegment: 300, mass: 'lumped', modes: 70 }, { withReference: false })
+    expect(residualWarnings(many)).toEqual([])
+    const random = seededRandom(3)
+    const phi = many.vectors[64]
+    const size = Math.max(...phi.map(Math.abs))
+    const noisy = phi.map((v) => v + 1e-9 * size * (2 * random() - 1))
+    expect(modelWarnings(withMode(many, 64, { vector: noisy })).filter((w) => w.code === 'residual').map((w) => w.message.slice(0, 8))).toEqual(['Mode 65 '])
+  })
+
   test('two modes mixed by 1e-5: an orthogonality warning naming them', () => {
     const mixed = analysis.vectors[1].map((v, j) => v + 1e-5 * analysis.vectors[0][j])
     const warnings = modelWarnings(withMode(analysis, 1, { vector: mixed }))
