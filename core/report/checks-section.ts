@@ -5,7 +5,7 @@
  * Problem, ch. 3, from memory).
  */
 import type { FamilyAnalysis, ModalAnalysis } from '../analysis/modal-analysis'
-import { RESIDUAL_LIMIT, type ModelWarning } from '../analysis/model-checks'
+import { backwardErrorLimit, type ModelWarning } from '../analysis/model-checks'
 import { escapeHtml, htmlTable, type Cell } from './html'
 import { formatFrequency, formatScientific } from './number-format'
 
@@ -48,7 +48,7 @@ ${table}
 ${
   warnings.length
     ? `<ul class="model-warnings">${warnings.map((w) => `<li class="status-conflict">${escapeHtml(w.message)}</li>`).join('\n')}</ul>`
-    : `<p class="model-checks-passed">No warnings: every mode satisfies K φ = ω² M φ to a relative residual below ${formatScientific(RESIDUAL_LIMIT, 1)}, the modes are mutually mass-orthogonal, and no spring, point mass, section or element size is extreme enough to make the equations ill-conditioned.</p>`
+    : `<p class="model-checks-passed">No warnings: every mode satisfies K φ = ω² M φ to a backward error below ${formatScientific(backwardErrorLimit(analysis.model.pencil.stiffness.order, analysis.model.pencil.stiffness.halfBandwidth), 1)} (the round-off level for its unknowns), the modes are mutually mass-orthogonal, and no spring, point mass, section or element size is extreme enough to make the equations ill-conditioned.</p>`
 }
 <h3>Reference method</h3>
 <p class="reference-method">${referenceText}</p>

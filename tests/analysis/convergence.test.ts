@@ -1,8 +1,9 @@
 /**
  * Convergence behaviour of the element and mass choices on a uniform bar, against the
- * closed form (check-values.md §3; Hughes, The Finite Element Method, from memory):
- * consistent mass converges as O(h²) from above, lumped as O(h²) from below, their average
- * ("mixed") as O(h⁴), 3-node consistent elements as O(h⁴).
+ * closed form (docs/verification.md §3; Hughes, The Finite Element Method, from memory):
+ * 2-node consistent mass converges as O(h²) from above, lumped as O(h²) from below, their
+ * average ("mixed") as O(h⁴); 3-node elements as O(h⁴), consistent and mixed from above, lumped
+ * from below (the series of the 3-node dispersion relation, tests/fe/three-node-dispersion.test.ts).
  */
 import { describe, expect, test } from 'vitest'
 import { convergenceStudy } from '../../core/analysis/convergence'
@@ -18,6 +19,8 @@ describe('observed orders on a uniform fixed–free bar', () => {
     [1, 'lumped', 2, -1],
     [1, 'mixed', 4, 0],
     [2, 'consistent', 4, 1],
+    [2, 'lumped', 4, -1],
+    [2, 'mixed', 4, 1],
   ] as const)('%i-order elements, %s mass: order %i', (order, mass, expectedOrder, sign) => {
     const s = series(order, mass)
     s.observedOrder.forEach((p, m) => {

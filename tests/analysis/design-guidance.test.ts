@@ -1,15 +1,16 @@
 /**
  * Design guidance against closed forms and independent computations:
  * - a uniform bar's f ∝ c/L = √(E/ρ)/L gives relative sensitivities −1 to length, +½ to E,
- *   −½ to density, 0 to a solid section's diameter (check-values.md §1);
+ *   −½ to density, 0 to a solid section's diameter (docs/verification.md §1);
  * - on stepped, loaded models, the analytic sensitivities against central differences of the
  *   exact piecewise solver (an independent route: re-solving perturbed parts);
- * - the tuner against L = c/(4f) for a fixed–free bar (check-values.md §1);
+ * - the tuner against L = c/(4f) for a fixed–free bar (docs/verification.md §1), and its
+ *   separation goal against optima in closed form (§10);
  * - scatter quantiles against the analytic quantiles of f ∝ √E for a tolerance on E alone:
- *   with E = E₀(1 + t(2U − 1)), U uniform, the q-quantile is f₀ √(1 + t(2q − 1));
+ *   with E = E₀(1 + t(2U − 1)), U uniform, the q-quantile is f₀ √(1 + t(2q − 1)) (§12);
  * - the receptance's static limit L/(EA) at the tip of a uniform fixed–free bar, and its peak
  *   near f₁, ≈ φ₁(L)² / (2ζω₁²) with φ₁(L)² = 2/m for mass-normalised modes (Rao, Mechanical
- *   Vibrations, continuous systems and forced response, from memory).
+ *   Vibrations, continuous systems and forced response, from memory; §11).
  */
 import { describe, expect, test } from 'vitest'
 import { designParameters, withParameter, withSegmentLength } from '../../core/analysis/design-parameters'
@@ -20,7 +21,6 @@ import { seededRandom } from '../../core/random'
 import { analyseProject } from '../../core/analysis/modal-analysis'
 import { forcedResponse } from '../../core/analysis/forced-response'
 import { exactReference } from '../../core/exact/reference'
-import { excitationBands, separationFromBand } from '../../core/analysis/resonance'
 import { expectRelative, makeProject, uniformBar } from '../helpers'
 
 const E = 200e9
@@ -96,30 +96,120 @@ describe('tuner', () => {
     const result = tuneParameter(uniformBar(), { parameter: 'segments[0].length', min: 0.5, max: 5, mode: 2, targetHz: 2500 })
     expectRelative(result.value, (3 * c) / (4 * 2500), 1e-9, 'length')
   })
-  test('the best separation is at least as good as a fine scan of the range', () => {
-    const project = makeProject({
-      materials: [{ id: 'st', youngsModulus: 2e11, density: 7850 }],
-      segments: [{ length: 2, material: 'st', section: { shape: 'solid', diameter: 0.024 } }],
-      masses: [{ at: 2, mass: 40 }],
-      excitations: [
-        { label: 'pump', rpm: [2960, 2990], orders: [1, 2, 7] },
-        { label: 'line', hz: 100 },
-      ],
-      analysis: { modes: 3 },
-    })
-    const result = tuneParameter(project, { parameter: 'masses[0].mass', min: 5, max: 120 })
-    const bands = excitationBands(project.excitations)
-    let scanBest = 0
-    for (let i = 0; i <= 400; i++) {
-      const mass = 5 + (115 * i) / 400
-      const fs = exactReference(withParameter(project, { kind: 'mass', index: 0 }, mass), 3).frequenciesHz
-      scanBest = Math.max(scanBest, Math.min(...fs.flatMap((f) => bands.map((b) => Math.abs(separationFromBand(f, b.hz))))))
-    }
-    expect(result.minSeparation as number).toBeGreaterThanOrEqual(scanBest - 1e-6)
-    expect(result.minSeparation as number).toBeGreaterThan(result.before.minSeparation as number)
-  })
   test('an unreachable target is refused with the range it can reach', () => {
     expect(() => tuneParameter(uniformBar(), { parameter: 'segments[0].length', min: 0.5, max: 1, mode: 1, targetHz: 100 })).toThrow(/moves between/)
+  })
+})
+
+/**
+ * The separation goal against optima known in closed form (docs/verification.md §10). On a
+ * fixed–free uniform bar f₁ = c/(4L), f₂ = 3f₁ (§1); with f₁ between two excitations the
+ * smallest separation min((f − F₁)/F₁, (F₂ − f)/F₂) is largest where the two are equal,
+ * f* = 2F₁F₂/(F₁ + F₂), where it is (F₂ − F₁)/(F₁ + F₂); with one excitation F between f₁
+ * and f₂ = 3f₁, (F − f₁)/F = (3f₁ − F)/F gives f₁* = F/2 and a separation of ½. Each range
+ * puts the optimum at a different fraction of the tuner's grid step, so that a search that
+ * looks on one side of the best grid point only misses it.
+ */
+describe('tuner: separation optimum between grid points', () => {
+  const c = Math.sqrt(E / RHO)
+  const bar = (excitations: unknown[], modes: number) => uniformBar({ extra: { excitations, analysis: { modes } } })
+
+  const betweenTwo = { lo: 900, hi: 1400 }
+  const bestBetweenTwo = (2 * betweenTwo.lo * betweenTwo.hi) / (betweenTwo.lo + betweenTwo.hi)
+  test.each([
+    [0.8, 1.7],
+    [1.0, 1.3],
+    [0.9, 1.6],
+    [1.1, 1.5],
+    [0.76, 1.2],
+  ])('length in [%f, %f] m, f₁ between 900 and 1400 Hz: L* = c/(4f*) with f* their harmonic mean', (min, max) => {
+    const project = bar([{ label: 'low', hz: betweenTwo.lo }, { label: 'high', hz: betweenTwo.hi }], 1)
+    const result = tuneParameter(project, { parameter: 'segments[0].length', min, max })
+    expectRelative(result.value, c / (4 * bestBetweenTwo), 1e-8, 'length')
+    expectRelative(result.minSeparation as number, (betweenTwo.hi - betweenTwo.lo) / (betweenTwo.hi + betweenTwo.lo), 1e-8, 'separation')
+  })
+
+  test.each([
+    [1.0, 1.5],
+    [0.95, 1.9],
+    [1.2, 1.4],
+    [1.05, 2.2],
+  ])('length in [%f, %f] m, 2000 Hz between f₁ and f₂ = 3f₁: L* = c/(2F), separation ½', (min, max) => {
+    const project = bar([{ label: 'mesh', hz: 2000 }], 2)
+    const result = tuneParameter(project, { parameter: 'segments[0].length', min, max })
+    expectRelative(result.value, c / (2 * 2000), 1e-8, 'length')
+    expectRelative(result.minSeparation as number, 0.5, 1e-8, 'separation')
+  })
+
+  test.each([
+    [0.8e11, 2.0e11],
+    [1.0e11, 1.5e11],
+    [0.5e11, 3.0e11],
+    [1.2e11, 1.31e11],
+  ])('E in [%f, %f] Pa between the bands 700–760 and 1500–1650 Hz: E* = ρ(4Lf*)² with f* = 2·760·1500/(760 + 1500)', (min, max) => {
+    const project = bar([{ label: 'low band', hz: [700, 760] }, { label: 'high band', hz: [1500, 1650] }], 1)
+    const best = (2 * 760 * 1500) / (760 + 1500)
+    const result = tuneParameter(project, { parameter: 'materials[0].youngsModulus', min, max })
+    expectRelative(result.value, RHO * (4 * 1 * best) ** 2, 1e-8, 'E')
+    expectRelative(result.minSeparation as number, (1500 - 760) / (1500 + 760), 1e-8, 'separation')
+  })
+
+  test('tip mass against λ tan λ = m/M (Rao), optimum found here by scan and golden section', () => {
+    // Fixed–free bar with a tip mass M: ω = λc/L with λ tan λ = m/M, m = ρAL (docs/verification.md §2).
+    const L = 2
+    const d = 0.024
+    const m = RHO * (Math.PI / 4) * d * d * L
+    const excitations = [
+      { label: 'pump', rpm: [2960, 2990], orders: [1, 2, 7] },
+      { label: 'line', hz: 100 },
+    ]
+    const project = makeProject({
+      materials: [{ id: 'st', youngsModulus: E, density: RHO }],
+      segments: [{ length: L, material: 'st', section: { shape: 'solid', diameter: d } }],
+      masses: [{ at: L, mass: 40 }],
+      excitations,
+      analysis: { modes: 3 },
+    })
+    const bands = [1, 2, 7].map((order) => [(2960 * order) / 60, (2990 * order) / 60]).concat([[100, 100]])
+    const separation = (f: number, [lo, hi]: number[]) => (f < lo ? (lo - f) / lo : f > hi ? (f - hi) / hi : 0)
+    const objective = (M: number) => {
+      let worst = Infinity
+      for (let n = 1; n <= 3; n++) {
+        // λ sin λ − (m/M) cos λ changes sign once on ((n−1)π, (n−1)π + π/2); bisection to the last bit.
+        let lo = (n - 1) * Math.PI
+        let hi = lo + Math.PI / 2
+        const g = (x: number) => x * Math.sin(x) - (m / M) * Math.cos(x)
+        for (let i = 0; i < 200 && hi - lo > 1e-15 * hi; i++) {
+          const mid = 0.5 * (lo + hi)
+          if (Math.sign(g(mid)) === Math.sign(g(lo))) lo = mid
+          else hi = mid
+        }
+        const f = (0.5 * (lo + hi) * c) / (2 * Math.PI * L)
+        for (const band of bands) worst = Math.min(worst, separation(f, band))
+      }
+      return worst
+    }
+    // Scan 2000 steps of the range, then golden section on the two steps around the best point.
+    const [min, max] = [5, 120]
+    let best = min
+    for (let i = 0; i <= 2000; i++) {
+      const M = min + ((max - min) * i) / 2000
+      if (objective(M) > objective(best)) best = M
+    }
+    const step = (max - min) / 2000
+    let a = Math.max(min, best - step)
+    let b = Math.min(max, best + step)
+    const golden = (Math.sqrt(5) - 1) / 2
+    while (b - a > 1e-12 * b) {
+      const x1 = b - golden * (b - a)
+      const x2 = a + golden * (b - a)
+      if (objective(x1) >= objective(x2)) b = x2
+      else a = x1
+    }
+    const optimum = 0.5 * (a + b)
+    const result = tuneParameter(project, { parameter: 'masses[0].mass', min, max })
+    expectRelative(result.value, optimum, 1e-7, 'tip mass')
+    expectRelative(result.minSeparation as number, objective(optimum), 1e-9, 'separation')
   })
 })
 

@@ -1,5 +1,5 @@
 /**
- * Effective modal mass for support motion along the axis (check-values.md §4, derived from
+ * Effective modal mass for support motion along the axis (docs/verification.md §4, derived from
  * the mode shapes of §1; from memory): fixed–free m_eff,n/m = 8/((2n−1)²π²) →
  * 0.810569, 0.090063, 0.032423; fixed–fixed (both ends moving together) 8/(n²π²) for odd n
  * and 0 for even n. With lumped masses the sum over all modes is an identity:

@@ -76,7 +76,7 @@ describe('separation and status', () => {
 
 describe('on a solved part', () => {
   test('the check uses the exact frequency, reports it as modeHz, and the CSV has a row per mode', () => {
-    // Uniform steel bar, 1 m, fixed–free: f1 = c/4L = 1261.886 Hz (check-values.md §1).
+    // Uniform steel bar, 1 m, fixed–free: f1 = c/4L = 1261.886 Hz (docs/verification.md §1).
     const project = uniformBar({ extra: { excitations: [{ label: 'Gear mesh', rpm: [3000, 3200], orders: [24] }], margin: 0.15, analysis: { modes: 3 } } })
     const analysis = analyseProject(project)
     const doc = solveDocument(analysis)

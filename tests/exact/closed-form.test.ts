@@ -1,5 +1,5 @@
 /**
- * Closed forms of check-values.md §1–2 (Rao, Mechanical Vibrations, continuous systems;
+ * Closed forms of docs/verification.md §1–2 (Rao, Mechanical Vibrations, continuous systems;
  * Blevins, Formulas for Natural Frequency and Mode Shape; from memory; roots re-computed
  * with mpmath when the list was made), and the exact piecewise solver against them.
  */
@@ -9,7 +9,7 @@ import { stationChain } from '../../core/exact/reference'
 import { exactAngularFrequencies } from '../../core/exact/wittrick-williams'
 import { expectRelative, uniformBar } from '../helpers'
 
-describe('uniform bar (check-values §1)', () => {
+describe('uniform bar (docs/verification.md §1)', () => {
   test('steel 1 m fixed–free: c = 5047.545 m/s, f1 = 1261.886 Hz, f2 = 3785.658 Hz', () => {
     const c = Math.sqrt(200e9 / 7850)
     expectRelative(c, 5047.545, 1e-6, 'c')
@@ -24,7 +24,7 @@ describe('uniform bar (check-values §1)', () => {
   })
 })
 
-describe('tip mass and tip spring (check-values §2)', () => {
+describe('tip mass and tip spring (docs/verification.md §2)', () => {
   test.each([
     [1, [0.860334, 3.425618, 6.437298]],
     [0.5, [0.653271, 3.29231]],

@@ -1,5 +1,5 @@
 /**
- * Two independent methods must agree (check-values.md §5): the exact piecewise solution
+ * Two independent methods must agree (docs/verification.md §5): the exact piecewise solution
  * (transfer matrices with the Wittrick–Williams count) and the finite-element solution
  * extrapolated to zero element size (Richardson, from 2-node consistent-mass meshes at
  * 128, 256, 512 elements per segment), to 1e-7; and 3-node elements at 100 per segment

@@ -2,7 +2,7 @@
  * A uniform mesh of 2-node elements has eigenvalues known in closed form, the discrete
  * dispersion relation (T. J. R. Hughes, The Finite Element Method, eigenvalue problems;
  * Cook, Malkus, Plesha & Witt, Concepts and Applications of FEA, mass matrices; both
- * from memory; verified against a dense solve in check-values.md §3):
+ * from memory; verified against a dense solve in docs/verification.md §3):
  *   consistent mass  ω² = (6c²/h²)(1 − cos θ)/(2 + cos θ)
  *   lumped mass      ω  = (2c/h) sin(θ/2)
  * with θ = nπh/L (fixed–fixed) or (2n−1)πh/(2L) (fixed–free). 1 − cos θ is evaluated as

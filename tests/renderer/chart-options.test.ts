@@ -123,12 +123,12 @@ describe('warning sentences', () => {
       motion: 'axial',
       plane: null,
       family: 'axial',
-      frequencyHz: 106.356,
+      frequencyHz: 113.8,
       band: { excitationIndex: 1, label: 'Motor twice line frequency', order: null, hz: [100, 100], excites: ['axial'] },
-      separation: 0.06356,
+      separation: 0.138, // (113.8 − 100)/100; an invented pair: the sentence gives 3 significant figures, then 2
       status: 'conflict',
     }
-    expect(pairSentence(pair)).toBe('Mode 1 at 106 Hz is 6.4 % above Motor twice line frequency (100 Hz)')
+    expect(pairSentence(pair)).toBe('Mode 1 at 114 Hz is 14 % above Motor twice line frequency (100 Hz)')
     expect(pairSentence({ ...pair, frequencyHz: 95, separation: -0.05 })).toBe('Mode 1 at 95 Hz is 5 % below Motor twice line frequency (100 Hz)')
     const band = { excitationIndex: 0, label: 'Pump', order: 2, hz: [98.6667, 99.6667] as const, excites: ['axial' as const] }
     expect(pairSentence({ ...pair, frequencyHz: 99, separation: 0, band })).toBe('Mode 1 at 99 Hz lies inside Pump ×2 (98.67–99.67 Hz, 2960–2990 rpm)')

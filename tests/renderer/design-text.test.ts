@@ -1,7 +1,7 @@
 /**
  * Sensitivities in words and display units. The expected Hz figures come from the closed form of
  * a uniform fixed–free bar, f₁ = c/(4L) with c = √(E/ρ) (S. S. Rao, Mechanical Vibrations,
- * longitudinal vibration of bars; check-values.md §1; from memory), whose derivatives are
+ * longitudinal vibration of bars; docs/verification.md §1; from memory), whose derivatives are
  * df/dL = −f/L, df/dE = f/(2E), df/dρ = −f/(2ρ), and nothing for the diameter. Unit factors are
  * NIST SP 811's (1 in = 0.0254 m exactly). Steps are Rodwave's own rule (about 1 %, rounded to
  * 1, 2 or 5 × 10ⁿ in the unit shown), checked as behaviour.
