@@ -1,5 +1,5 @@
 /** Σ over odd n of 1/n⁵ = (1 − 2⁻⁵) ζ(5), ζ(5) = 1.0369277551433699… (Abramowitz & Stegun, table 23.3, from memory). */
-const ODD_FIFTH_POWERS = (31 / 32) * 1.0369277551433699
+const ODD_FIFTH_POWERS = (31 / 32) * 1.03692775514337
 
 /**
  * Saint-Venant's torsion constant of a solid rectangle b × h (b ≥ h), by its series
