@@ -509,7 +509,7 @@ export function inverseIterationStepInPlace(
   const { stiffness: k, mass: m } = pencil
   if (k.halfBandwidth === 1) return blockInverseIterationStep(pencil, [shift], [x], work)[0]
   factorShifted(pencil, shift, f)
-  if (hasTinyInteriorPivot(pencil, shift, f)) return pivotedStep(pencil, shift, x.slice(), x, f.negativePivots)
+  if (k.halfBandwidth === 3 ? f.tinyInteriorPivot : hasTinyInteriorPivot(pencil, shift, f)) return pivotedStep(pencil, shift, x.slice(), x, f.negativePivots)
   multiplyBand(m, x, scratch)
   const xMx = dotProduct(x, scratch)
   solveFactored(f, scratch, x)

@@ -37,6 +37,8 @@ export interface ShiftedFactorization {
   readonly multipliers: Float64Array[]
   /** Number of negative pivots = number of eigenvalues strictly below the shift. */
   negativePivots: number
+  /** Half-bandwidth 3 only: whether the factorisation met a tiny interior pivot (see hasTinyInteriorPivot). */
+  tinyInteriorPivot: boolean
   /** Working copies for bandwidth > 1. */
   readonly workBand: Float64Array[]
   readonly workRowSums: Float64Array
@@ -56,6 +58,7 @@ export function allocateFactorization(order: number, halfBandwidth: number): Shi
     pivots: new Float64Array(order),
     multipliers,
     negativePivots: 0,
+    tinyInteriorPivot: false,
     workBand,
     workRowSums: new Float64Array(halfBandwidth > 1 ? order : 0),
   }
@@ -88,7 +91,7 @@ export function factorShifted(pencil: BandPencil, shift: number, f: ShiftedFacto
   const { stiffness: k } = pencil
   if (k.order !== f.order || k.halfBandwidth !== f.halfBandwidth) throw new RangeError('factorisation storage does not fit the pencil')
   f.shift = shift
-  f.negativePivots = k.halfBandwidth === 1 ? factorTridiagonal(pencil, shift, f) : k.halfBandwidth === 3 ? factorBandThree(pencil, shift, f, true) : factorBanded(pencil, shift, f)
+  f.negativePivots = k.halfBandwidth === 1 ? factorTridiagonal(pencil, shift, f) : k.halfBandwidth === 3 ? factorBandThree(pencil, shift, f) : factorBanded(pencil, shift, f)
   return f
 }
 
@@ -180,18 +183,23 @@ function factorBanded(pencil: BandPencil, shift: number, f: ShiftedFactorization
 /**
  * The elimination of factorBanded written out for half-bandwidth 3 (a beam's two unknowns per
  * node), with the rows it updates held in local variables: pivot p changes only rows p + 1 …
- * p + 3. With `store` false only the Sturm count is wanted and nothing is written.
+ * p + 3. Without `f` only the Sturm count is wanted and nothing is written; with it, the test of
+ * hasTinyInteriorPivot is made in the same sweep (f.tinyInteriorPivot).
  */
-function factorBandThree(pencil: BandPencil, shift: number, f: ShiftedFactorization, store: boolean): number {
-  const n = f.order
+function factorBandThree(pencil: BandPencil, shift: number, f: ShiftedFactorization | null): number {
   const { stiffness: k, mass: m } = pencil
+  const n = k.order
+  const store = f !== null
   const k1 = k.offDiagonals[0], k2 = k.offDiagonals[1], k3 = k.offDiagonals[2] // prettier-ignore
   const m1 = m.offDiagonals[0], m2 = m.offDiagonals[1], m3 = m.offDiagonals[2] // prettier-ignore
   const kr = k.rowSums
   const mr = m.rowSums
-  const pivots = f.pivots
-  const l1s = f.multipliers[0], l2s = f.multipliers[1], l3s = f.multipliers[2] // prettier-ignore
+  const pivots = f?.pivots
+  const l1s = f?.multipliers[0], l2s = f?.multipliers[1], l3s = f?.multipliers[2] // prettier-ignore
   const floor = pivotFloor(pencil, shift)
+  // |A| of the unfactored couplings of earlier rows with the current one: A[p−1][p], A[p−2][p], A[p−3][p].
+  let left1 = 0, left2a = 0, left2b = 0, left3a = 0, left3b = 0, left3c = 0 // prettier-ignore
+  let tiny = false
   const at = (kb: Float64Array, mb: Float64Array, i: number) => (i < n ? kb[i] - shift * mb[i] : 0)
   // Row p's row sum and upper entries, then rows p + 1 … p + 3 as far as they are updated.
   let r0 = at(kr, mr, 0), r1 = at(kr, mr, 1), r2 = at(kr, mr, 2), r3 = at(kr, mr, 3) // prettier-ignore
@@ -207,10 +215,20 @@ function factorBandThree(pencil: BandPencil, shift: number, f: ShiftedFactorizat
     const l2 = a02 / pivot
     const l3 = a03 / pivot
     if (store) {
-      pivots[p] = pivot
-      l1s[p] = l1
-      l2s[p] = l2
-      l3s[p] = l3
+      ;(pivots as Float64Array)[p] = pivot
+      ;(l1s as Float64Array)[p] = l1
+      ;(l2s as Float64Array)[p] = l2
+      ;(l3s as Float64Array)[p] = l3
+      const o1 = p + 1 < n ? Math.abs(k1[p] - shift * m1[p]) : 0
+      const o2 = p + 2 < n ? Math.abs(k2[p] - shift * m2[p]) : 0
+      const o3 = p + 3 < n ? Math.abs(k3[p] - shift * m3[p]) : 0
+      if (p + 1 < n && Math.abs(pivot) < 1e-12 * (o1 + o2 + o3 + left1 + left2b + left3c)) tiny = true
+      left3c = left3b
+      left3b = left3a
+      left3a = o3
+      left2b = left2a
+      left2a = o2
+      left1 = o1
     }
     r1 -= l1 * r0
     a12 -= l1 * a02
@@ -230,6 +248,7 @@ function factorBandThree(pencil: BandPencil, shift: number, f: ShiftedFactorizat
     a23 = p + 4 < n ? k1[p + 3] - shift * m1[p + 3] : 0
     r3 = p + 4 < n ? kr[p + 4] - shift * mr[p + 4] : 0
   }
+  if (f) f.tinyInteriorPivot = tiny
   return negative
 }
 
@@ -299,8 +318,7 @@ export function sturmCounts(pencil: BandPencil, shifts: ArrayLike<number>): numb
   if (s === 0) return []
   const out: number[] = []
   if (pencil.stiffness.halfBandwidth === 3) {
-    const f = allocateFactorization(pencil.stiffness.order, 3)
-    for (let i = 0; i < s; i++) out.push(factorBandThree(pencil, shifts[i], f, false))
+    for (let i = 0; i < s; i++) out.push(factorBandThree(pencil, shifts[i], null))
     return out
   }
   if (pencil.stiffness.halfBandwidth !== 1) {
