@@ -10,6 +10,7 @@
 import { readFile, stat } from 'node:fs/promises'
 import { basename, dirname, join } from 'node:path'
 import type { OpenDialogOptions, SaveDialogOptions } from 'electron'
+import { decodeProjectBytes } from '../core/model/project-bytes'
 import { writeFileAtomic } from './atomic-write'
 import type { ExportKind, ExportRequest, OpenResult, SaveRequest, SaveResult } from './ipc-contract'
 import { MAX_PROJECT_BYTES, formatMegabytes } from './ipc-validation'
@@ -99,7 +100,7 @@ function withExtension(name: string, extension: string, accepted: readonly strin
   return accepted.some((ending) => lower.endsWith(ending)) ? name : `${name}${extension}`
 }
 
-/** Reads a project file as text: at most 20 MB, UTF-8, byte-order mark removed. */
+/** Reads a project file as text: at most 20 MB, by the one rule for a project file's bytes (core/model/project-bytes). */
 export async function readProjectText(path: string): Promise<OpenResult> {
   const name = basename(path)
   try {
@@ -112,13 +113,9 @@ export async function readProjectText(path: string): Promise<OpenResult> {
     if (info.size > MAX_PROJECT_BYTES) return tooLarge(info.size)
     const bytes = await readFile(path)
     if (bytes.byteLength > MAX_PROJECT_BYTES) return tooLarge(bytes.byteLength)
-    let text: string
-    try {
-      text = new TextDecoder('utf-8', { fatal: true }).decode(bytes)
-    } catch {
-      return { kind: 'error', message: `Could not open "${name}": it is not UTF-8 text, so it is not a Rodwave project file.` }
-    }
-    return { kind: 'opened', path, name, text: text.startsWith(UTF8_BOM) ? text.slice(1) : text }
+    const decoded = decodeProjectBytes(bytes)
+    if (!decoded.ok) return { kind: 'error', message: `Could not open "${name}": it ${decoded.message}.` }
+    return { kind: 'opened', path, name, text: decoded.text }
   } catch (error) {
     return { kind: 'error', message: describeFileError(error, 'open', path) }
   }

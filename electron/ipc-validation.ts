@@ -4,11 +4,12 @@
  */
 import { isAbsolute } from 'node:path'
 import { z } from 'zod'
+import { MAX_PROJECT_BYTES } from '../core/model/project-bytes'
 import type { DocumentState, ExportRequest, SaveRequest } from './ipc-contract'
 
 const MEGABYTE = 1024 * 1024
-/** Largest project file Rodwave opens or saves (so whatever it saves, it can open again). */
-export const MAX_PROJECT_BYTES = 20 * MEGABYTE
+/** Largest project file Rodwave opens or saves (so whatever it saves, it can open again): core's one limit. */
+export { MAX_PROJECT_BYTES }
 /** Largest export: a report's HTML with its charts as inline SVG. */
 export const MAX_EXPORT_BYTES = 50 * MEGABYTE
 export const MAX_PATH_LENGTH = 4096
