@@ -37,6 +37,15 @@ export interface ExportRequest {
 /** Commands from the application menu, forwarded to the window. */
 export type MenuCommand = 'new' | 'open' | 'save' | 'save-as' | 'export-csv' | 'export-report-html' | 'export-report-pdf' | 'undo' | 'redo' | 'cautions'
 
+/** Unsaved work an earlier session left (see electron/recovery.ts). */
+export interface RecoveredWork {
+  /** Names the copy for settleRecovery. */
+  readonly id: string
+  readonly text: string
+  /** When it was last written (ISO 8601), if known. */
+  readonly savedAt: string | null
+}
+
 export interface DocumentState {
   readonly dirty: boolean
   readonly title: string
@@ -54,6 +63,7 @@ export const CHANNELS = {
   writeRecovery: 'rodwave:write-recovery',
   readRecovery: 'rodwave:read-recovery',
   clearRecovery: 'rodwave:clear-recovery',
+  settleRecovery: 'rodwave:settle-recovery',
   menuCommand: 'rodwave:menu-command',
   /** Added by the shell (event, main → window): a file chosen under File › Open recent.
    *  The window asks about unsaved changes as for Open, then calls openRecent(path). */
@@ -69,8 +79,9 @@ export interface ChannelTypes {
   [CHANNELS.demoProject]: { request: void; response: { name: string; text: string } }
   [CHANNELS.setDocumentState]: { request: DocumentState; response: void }
   [CHANNELS.writeRecovery]: { request: string; response: void }
-  [CHANNELS.readRecovery]: { request: void; response: string | null }
+  [CHANNELS.readRecovery]: { request: void; response: RecoveredWork[] }
   [CHANNELS.clearRecovery]: { request: void; response: void }
+  [CHANNELS.settleRecovery]: { request: string; response: void }
 }
 
 /** What the preload exposes as window.rodwave (and the browser build provides itself). */
@@ -83,9 +94,18 @@ export interface RodwaveBridge {
   recentFiles(): Promise<string[]>
   demoProject(): Promise<{ name: string; text: string }>
   setDocumentState(state: DocumentState): Promise<void>
+  /** Writes this session's recovery copy (the autosave of unsaved work). */
   writeRecovery(text: string): Promise<void>
-  readRecovery(): Promise<string | null>
+  /**
+   * Called once when the window starts: begins this session's recovery copy (a file of its
+   * own) and returns the copies earlier sessions left that the user has not decided on yet,
+   * newest first. They stay until settleRecovery.
+   */
+  readRecovery(): Promise<RecoveredWork[]>
+  /** Removes this session's recovery copy. */
   clearRecovery(): Promise<void>
+  /** The user restored or discarded the earlier copy `id`: it is removed. */
+  settleRecovery(id: string): Promise<void>
   /** Subscribes to menu commands; returns the unsubscribe function. */
   onMenuCommand(listener: (command: MenuCommand) => void): () => void
   /** Added by the shell, optional (the browser build has no application menu): subscribes

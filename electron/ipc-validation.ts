@@ -6,6 +6,7 @@ import { isAbsolute } from 'node:path'
 import { z } from 'zod'
 import { MAX_PROJECT_BYTES } from '../core/model/project-bytes'
 import type { DocumentState, ExportRequest, SaveRequest } from './ipc-contract'
+import { RECOVERY_ID_PATTERN } from './recovery'
 
 const MEGABYTE = 1024 * 1024
 /** Largest project file Rodwave opens or saves (so whatever it saves, it can open again): core's one limit. */
@@ -55,6 +56,8 @@ export const documentStateSchema = z.object({
 }) satisfies z.ZodType<DocumentState>
 
 export const recoveryTextSchema = textUpTo(MAX_PROJECT_BYTES)
+
+export const recoveryIdSchema = z.string().regex(RECOVERY_ID_PATTERN, { error: 'must name a recovery copy' })
 
 /** For channels without a request: any argument at all is a mistake. */
 export const noArgumentSchema = z.undefined({ error: 'this request takes no argument' })

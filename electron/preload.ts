@@ -46,6 +46,7 @@ const bridge: RodwaveBridge = {
   writeRecovery: (text) => ipcRenderer.invoke(CHANNELS.writeRecovery, text),
   readRecovery: () => ipcRenderer.invoke(CHANNELS.readRecovery),
   clearRecovery: () => ipcRenderer.invoke(CHANNELS.clearRecovery),
+  settleRecovery: (id) => ipcRenderer.invoke(CHANNELS.settleRecovery, id),
   onMenuCommand: (listener) => subscribe(CHANNELS.menuCommand, isMenuCommand, listener),
   onOpenRecentRequest: (listener) => subscribe(CHANNELS.openRecentRequest, isPath, listener),
 }

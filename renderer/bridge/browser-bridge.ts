@@ -4,11 +4,16 @@
  * the print dialog for PDF, recovery and recent files in localStorage, and the demo
  * project bundled into the page.
  */
-import type { DocumentState, ExportRequest, MenuCommand, OpenResult, RodwaveBridge, SaveRequest, SaveResult } from './contract'
+import type { DocumentState, ExportRequest, MenuCommand, OpenResult, RecoveredWork, RodwaveBridge, SaveRequest, SaveResult } from './contract'
 import demoDocument from '../../examples/condensate-pump-hanger.rodwave.json'
 
 export const DEMO_NAME = 'condensate-pump-hanger.rodwave.json'
-const RECOVERY_KEY = 'rodwave.recovery'
+/** Each page load keeps its recovery copy under its own key, so an earlier load's copy waits for the user's answer. */
+const RECOVERY_PREFIX = 'rodwave.recovery.'
+/** The single recovery key of Rodwave 0.1, offered like any earlier copy. */
+const LEGACY_RECOVERY_KEY = 'rodwave.recovery'
+/** When each copy was written (ISO 8601), beside it. */
+const RECOVERY_TIME_PREFIX = 'rodwave.recovery-at.'
 const RECENT_KEY = 'rodwave.recent'
 const RECENT_LIMIT = 8
 /** Recent files keep their text in localStorage; larger ones are listed only while the page lives. */
@@ -34,6 +39,26 @@ export interface BrowserBridgeOptions {
 export function createBrowserBridge(options: BrowserBridgeOptions = {}): RodwaveBridge {
   const storage = options.storage ?? window.localStorage
   const menuListeners = new Set<(command: MenuCommand) => void>()
+  let session = newSessionId()
+  /** Earlier copies offered to this page, by id → storage key: only these may be settled. */
+  const offered = new Map<string, string>()
+
+  const earlierCopies = (): RecoveredWork[] => {
+    const copies: RecoveredWork[] = []
+    for (let index = 0; index < storage.length; index++) {
+      const key = storage.key(index)
+      if (key === null) continue
+      if (key === LEGACY_RECOVERY_KEY) {
+        const text = storage.getItem(key)
+        if (text !== null) copies.push({ id: 'legacy', text, savedAt: null })
+      } else if (key.startsWith(RECOVERY_PREFIX) && key !== RECOVERY_PREFIX + session) {
+        const id = key.slice(RECOVERY_PREFIX.length)
+        const text = storage.getItem(key)
+        if (text !== null) copies.push({ id, text, savedAt: storage.getItem(RECOVERY_TIME_PREFIX + id) })
+      }
+    }
+    return copies.sort((a, b) => (b.savedAt ?? '').localeCompare(a.savedAt ?? ''))
+  }
 
   const readRecent = (): RecentEntry[] => {
     try {
@@ -93,13 +118,26 @@ export function createBrowserBridge(options: BrowserBridgeOptions = {}): Rodwave
       document.title = `${state.dirty ? '• ' : ''}${state.title || 'Untitled project'} — Rodwave`
     },
     async writeRecovery(text: string): Promise<void> {
-      storage.setItem(RECOVERY_KEY, text)
+      storage.setItem(RECOVERY_PREFIX + session, text)
+      storage.setItem(RECOVERY_TIME_PREFIX + session, new Date().toISOString())
     },
-    async readRecovery(): Promise<string | null> {
-      return storage.getItem(RECOVERY_KEY)
+    async readRecovery(): Promise<RecoveredWork[]> {
+      session = newSessionId()
+      offered.clear()
+      const copies = earlierCopies()
+      for (const copy of copies) offered.set(copy.id, copy.id === 'legacy' ? LEGACY_RECOVERY_KEY : RECOVERY_PREFIX + copy.id)
+      return copies
     },
     async clearRecovery(): Promise<void> {
-      storage.removeItem(RECOVERY_KEY)
+      storage.removeItem(RECOVERY_PREFIX + session)
+      storage.removeItem(RECOVERY_TIME_PREFIX + session)
+    },
+    async settleRecovery(id: string): Promise<void> {
+      const key = offered.get(id)
+      if (key === undefined) return
+      storage.removeItem(key)
+      storage.removeItem(RECOVERY_TIME_PREFIX + id)
+      offered.delete(id)
     },
     onMenuCommand(listener: (command: MenuCommand) => void): () => void {
       // A browser has no application menu: the page's own buttons and keys are the menu.
@@ -107,6 +145,12 @@ export function createBrowserBridge(options: BrowserBridgeOptions = {}): Rodwave
       return () => menuListeners.delete(listener)
     },
   }
+}
+
+function newSessionId(): string {
+  const random = new Uint8Array(6)
+  crypto.getRandomValues(random)
+  return `${Date.now().toString(36)}-${Array.from(random, (byte) => byte.toString(16).padStart(2, '0')).join('')}`
 }
 
 function ensureExtension(name: string, extension: string): string {

@@ -5,8 +5,8 @@
  * stays exactly as it was.
  */
 import { defineStore } from 'pinia'
-import { ref, watch } from 'vue'
-import type { ExportKind, MenuCommand, OpenResult } from '../bridge/contract'
+import { computed, ref, watch } from 'vue'
+import type { ExportKind, MenuCommand, OpenResult, RecoveredWork } from '../bridge/contract'
 import { newProject } from '../../core/model/project-file'
 import { readProjectText, type ProjectIssue } from '../../core/model/project-schema'
 import type { Project } from '../../core/model/project'
@@ -47,7 +47,9 @@ export const useFileStore = defineStore('file', () => {
   const recent = ref<string[]>([])
   const refused = ref<RefusedFile | null>(null)
   const notice = ref<Notice | null>(null)
-  const recoveryText = ref<string | null>(null)
+  /** Copies of unsaved work that earlier sessions left, newest first; the first is on offer. */
+  const recoveries = ref<RecoveredWork[]>([])
+  const recoveryText = computed(() => recoveries.value[0]?.text ?? null)
   const confirmation = ref<Confirmation | null>(null)
   const busy = ref<string | null>(null)
   let lastRecoveryWritten: string | null = null
@@ -134,9 +136,9 @@ export const useFileStore = defineStore('file', () => {
       tell('error', `The demo project could not be loaded: ${error instanceof Error ? error.message : String(error)}`)
     }
     try {
-      recoveryText.value = await bridge.readRecovery()
+      recoveries.value = await bridge.readRecovery()
     } catch {
-      recoveryText.value = null
+      recoveries.value = []
     }
     await refreshRecent()
     ready.value = true
@@ -148,8 +150,13 @@ export const useFileStore = defineStore('file', () => {
     autosaveTimer = setInterval(() => void writeRecovery(), AUTOSAVE_MS)
   }
 
+  /** The autosave: this session's copy follows the unsaved draft, and goes once nothing is unsaved. */
   async function writeRecovery(): Promise<void> {
-    if (!project.dirty || project.draftText === lastRecoveryWritten) return
+    if (!project.dirty) {
+      if (lastRecoveryWritten !== null) await clearRecovery()
+      return
+    }
+    if (project.draftText === lastRecoveryWritten) return
     const text = project.draftText
     try {
       await useBridge().writeRecovery(text)
@@ -168,16 +175,13 @@ export const useFileStore = defineStore('file', () => {
     }
   }
 
-  /** Brings back the unsaved work of an earlier session, as an unsaved document. */
-  async function restoreRecovery(): Promise<void> {
-    const text = recoveryText.value
-    recoveryText.value = null
-    if (text === null) return
+  /** Shows recovered text as an unsaved document; false (and the problems shown) when it cannot be read. */
+  function showRecovered(text: string): boolean {
     const read = readProjectText(text)
     if (read.ok) {
       show(read.project, { path: null, name: UNTITLED, dirty: true })
       tell('info', 'Unsaved work restored. Save it to keep it.')
-      return
+      return true
     }
     // Work saved while it still had problems comes back as it was, problems named in the editor.
     try {
@@ -186,17 +190,46 @@ export const useFileStore = defineStore('file', () => {
         show(draft, { path: null, name: UNTITLED, dirty: true })
         view.activeView = 'part'
         tell('info', 'Unsaved work restored; it still has problems to fix.')
-        return
+        return true
       }
     } catch {
       // Not JSON at all: fall through to the refusal.
     }
     refused.value = { name: 'the recovery file', issues: read.issues }
+    return false
   }
 
+  /**
+   * Brings back the unsaved work of an earlier session, as an unsaved document. The earlier
+   * copy is removed only once the restored work is this session's recovery copy, so the work
+   * is on disk at every moment. A copy that cannot be read stays on offer (to be discarded).
+   */
+  async function restoreRecovery(): Promise<void> {
+    const copy = recoveries.value[0]
+    if (copy === undefined) return
+    if (!(await mayDiscard('Restore the earlier work'))) return
+    if (!showRecovered(copy.text)) return
+    recoveries.value = recoveries.value.filter((c) => c.id !== copy.id)
+    const text = project.draftText
+    try {
+      await useBridge().writeRecovery(text)
+      lastRecoveryWritten = text
+      await useBridge().settleRecovery(copy.id)
+    } catch {
+      // The earlier copy stays on disk and is offered again at the next start.
+    }
+  }
+
+  /** The user does not want the earlier session's work: its copy goes (this session's stays). */
   async function discardRecovery(): Promise<void> {
-    recoveryText.value = null
-    await clearRecovery()
+    const copy = recoveries.value[0]
+    if (copy === undefined) return
+    recoveries.value = recoveries.value.filter((c) => c.id !== copy.id)
+    try {
+      await useBridge().settleRecovery(copy.id)
+    } catch {
+      // It is offered again at the next start and can be discarded then.
+    }
   }
 
   async function newDocument(): Promise<void> {

@@ -54,6 +54,7 @@ describe('preload', () => {
         'writeRecovery',
         'readRecovery',
         'clearRecovery',
+        'settleRecovery',
         'onMenuCommand',
         'onOpenRecentRequest',
       ].sort(),
@@ -74,6 +75,7 @@ describe('preload', () => {
     ['writeRecovery', ['{}'], CHANNELS.writeRecovery],
     ['readRecovery', [], CHANNELS.readRecovery],
     ['clearRecovery', [], CHANNELS.clearRecovery],
+    ['settleRecovery', ['mhx1-0123456789ab'], CHANNELS.settleRecovery],
   ] as const)('%s invokes its own channel with its argument', async (method, args, channel) => {
     electron.ipcRenderer.invoke.mockClear()
     const call = bridge[method] as (...a: unknown[]) => Promise<unknown>

@@ -134,17 +134,89 @@ describe('file store', () => {
     expect(bridge.recoveryWrites).toHaveLength(writes)
   })
 
-  it('offers a recovery file found at start and restores it as unsaved work', async () => {
+  it('offers the copy an earlier session left and restores it as unsaved work, removing the copy only once the work is this session’s copy', async () => {
     const recovered = { ...demo(), title: 'Recovered hanger' }
     const second = freshApp()
-    second.recovery = writeProjectText(recovered)
+    second.earlierCopies = [{ id: 'mhx1-0123456789ab', text: writeProjectText(recovered), savedAt: '2026-12-01T08:00:00.000Z' }]
+    const ownCopyWhenSettled: (string | null)[] = []
+    const settle = second.settleRecovery.bind(second)
+    second.settleRecovery = async (id) => {
+      ownCopyWhenSettled.push(second.recovery)
+      return settle(id)
+    }
     const files = useFileStore()
     await files.start()
-    expect(files.recoveryText).toBe(second.recovery)
+    expect(files.recoveryText).toBe(writeProjectText(recovered))
     await files.restoreRecovery()
     expect(useProjectStore().draft.title).toBe('Recovered hanger')
     expect(useProjectStore().dirty).toBe(true)
+    expect(second.settled).toEqual(['mhx1-0123456789ab'])
+    // At the moment the earlier copy went, the restored work was already this session's copy.
+    expect(ownCopyWhenSettled).toEqual([useProjectStore().draftText])
+    expect(files.recoveryText).toBeNull()
     files.stop()
+  })
+
+  it('keeps an earlier session’s copy while this session autosaves and after "Discard" of other work, until the user answers', async () => {
+    vi.useFakeTimers()
+    const second = freshApp()
+    second.earlierCopies = [{ id: 'mhx1-0123456789ab', text: writeProjectText({ ...demo(), title: 'Crashed work' }), savedAt: null }]
+    const files = useFileStore()
+    await files.start()
+    useProjectStore().edit((p) => edits.setEnd(p, 'start', 'free'))
+    await vi.advanceTimersByTimeAsync(3 * AUTOSAVE_MS + 10)
+    // This session's autosave went to its own copy; the earlier one was neither overwritten nor removed.
+    expect(second.recovery).toBe(useProjectStore().draftText)
+    expect(second.settled).toEqual([])
+    expect(files.recoveryText).toBe(second.earlierCopies[0]!.text)
+    await files.discardRecovery()
+    expect(second.settled).toEqual(['mhx1-0123456789ab'])
+    expect(second.recovery).toBe(useProjectStore().draftText)
+    expect(files.recoveryText).toBeNull()
+    files.stop()
+  })
+
+  it('leaves a copy that cannot be read on offer, so that it can be discarded', async () => {
+    const second = freshApp()
+    second.earlierCopies = [{ id: 'mhx1-0123456789ab', text: '{"format": "rodw', savedAt: null }]
+    const files = useFileStore()
+    await files.start()
+    await files.restoreRecovery()
+    expect(files.refused?.name).toBe('the recovery file')
+    expect(second.settled).toEqual([])
+    expect(files.recoveryText).toBe('{"format": "rodw')
+    files.stop()
+  })
+
+  it('asks before restoring over unsaved edits', async () => {
+    const second = freshApp()
+    second.earlierCopies = [{ id: 'mhx1-0123456789ab', text: writeProjectText({ ...demo(), title: 'Recovered hanger' }), savedAt: null }]
+    const files = useFileStore()
+    await files.start()
+    useProjectStore().edit((p) => edits.setEnd(p, 'end', 'fixed'))
+    const restoring = files.restoreRecovery()
+    await settle()
+    expect(files.confirmation?.message).toContain('not saved')
+    files.confirmation!.resolve(false)
+    await restoring
+    expect(useProjectStore().draft.ends.end).toBe('fixed')
+    expect(second.settled).toEqual([])
+    files.stop()
+  })
+
+  it('removes this session’s copy once the document is back to its saved state', async () => {
+    vi.useFakeTimers()
+    const files = useFileStore()
+    files.stop()
+    await files.start()
+    const project = useProjectStore()
+    project.edit((p) => edits.setEnd(p, 'start', 'free'))
+    await vi.advanceTimersByTimeAsync(AUTOSAVE_MS + 10)
+    expect(bridge.recovery).toBe(project.draftText)
+    project.undo()
+    expect(project.dirty).toBe(false)
+    await vi.advanceTimersByTimeAsync(AUTOSAVE_MS + 10)
+    expect(bridge.recovery).toBeNull()
   })
 
   it('runs the desktop menu’s commands, once when the keyboard sends the same', async () => {

@@ -2,7 +2,7 @@
 import { readFileSync } from 'node:fs'
 import { join } from 'node:path'
 import { createPinia, setActivePinia } from 'pinia'
-import type { ExportRequest, MenuCommand, OpenResult, RodwaveBridge, SaveRequest } from '../../renderer/bridge/contract'
+import type { ExportRequest, MenuCommand, OpenResult, RecoveredWork, RodwaveBridge, SaveRequest } from '../../renderer/bridge/contract'
 import { setBridge } from '../../renderer/bridge/bridge'
 import { createInlineSolverClient, setSolver } from '../../renderer/solver/solver-client'
 
@@ -14,7 +14,12 @@ export const DEMO_TEXT = readFileSync(DEMO_PATH, 'utf8')
 export class MemoryBridge implements RodwaveBridge {
   readonly platform = 'browser' as const
   nextOpen: OpenResult = { kind: 'cancelled' }
+  /** This session's recovery copy. */
   recovery: string | null = null
+  /** Copies earlier sessions left (readRecovery offers them). */
+  earlierCopies: RecoveredWork[] = []
+  /** Ids of earlier copies the window settled (restored or discarded). */
+  readonly settled: string[] = []
   readonly saved: SaveRequest[] = []
   readonly exported: ExportRequest[] = []
   readonly states: { dirty: boolean; title: string }[] = []
@@ -53,12 +58,16 @@ export class MemoryBridge implements RodwaveBridge {
     this.recoveryWrites.push(text)
     this.recovery = text
   }
-  async readRecovery(): Promise<string | null> {
-    return this.recovery
+  async readRecovery(): Promise<RecoveredWork[]> {
+    return [...this.earlierCopies]
   }
   async clearRecovery(): Promise<void> {
     this.recoveryCleared++
     this.recovery = null
+  }
+  async settleRecovery(id: string): Promise<void> {
+    this.settled.push(id)
+    this.earlierCopies = this.earlierCopies.filter((copy) => copy.id !== id)
   }
   onMenuCommand(listener: (command: MenuCommand) => void): () => void {
     this.listeners.add(listener)
