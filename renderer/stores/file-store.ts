@@ -255,6 +255,8 @@ export const useFileStore = defineStore('file', () => {
       view.activeView = 'part'
       return false
     }
+    // What is written is the draft as it is now; edits made while the file is being written stay unsaved.
+    const writtenDraft = project.draftText
     const path = asNew ? null : project.filePath
     const result = await useBridge().saveProject({ path, suggestedName: suggestedName('.rodwave.json'), text })
     if (result.kind === 'cancelled') return false
@@ -262,10 +264,11 @@ export const useFileStore = defineStore('file', () => {
       tell('error', result.message)
       return false
     }
-    project.markSaved(result.path, result.name)
-    await clearRecovery()
+    project.markSaved(result.path, result.name, writtenDraft)
+    // The recovery copy goes only when nothing is left unsaved; otherwise the autosave keeps it current.
+    if (!project.dirty) await clearRecovery()
     await refreshRecent()
-    tell('info', `Saved ${result.name}`)
+    tell('info', project.dirty ? `Saved ${result.name}; changes made while it was being saved are not saved yet` : `Saved ${result.name}`)
     return true
   }
 

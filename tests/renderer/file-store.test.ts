@@ -109,6 +109,31 @@ describe('file store', () => {
     expect(bridge.recoveryCleared).toBe(1)
   })
 
+  it('marks saved exactly what was written: an edit made while the save is in flight stays unsaved and is kept for recovery', async () => {
+    const project = useProjectStore()
+    project.edit((p) => edits.updateAttachment(p, 'masses', 1, 'mass', 40), 'masses[1].mass')
+    const written = project.validProject!
+    let finishSave!: () => void
+    const save = bridge.saveProject.bind(bridge)
+    bridge.saveProject = (request) => new Promise((resolve) => (finishSave = () => resolve(save(request))))
+    const saving = useFileStore().runCommand('save')
+    await settle()
+    // The user types on while the file is being written.
+    project.edit((p) => edits.updateAttachment(p, 'masses', 1, 'mass', 45))
+    const edited = project.draftText
+    finishSave()
+    await saving
+    expect(bridge.saved[0]!.text).toBe(writeProjectText(written))
+    expect(project.dirty).toBe(true)
+    expect(project.draftText).toBe(edited)
+    // The recovery copy is not cleared: the newer edit is on neither disk nor the close prompt otherwise.
+    expect(bridge.recoveryCleared).toBe(0)
+    expect(bridge.states.at(-1)?.dirty).toBe(true)
+    // Undoing the edit made during the save comes back to exactly what was saved.
+    project.undo()
+    expect(project.dirty).toBe(false)
+  })
+
   it('refuses to save a part with problems and says why', async () => {
     const project = useProjectStore()
     project.edit((p) => edits.setSegmentLength(p, 0, -1))
