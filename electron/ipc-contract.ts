@@ -64,6 +64,7 @@ export const CHANNELS = {
   readRecovery: 'rodwave:read-recovery',
   clearRecovery: 'rodwave:clear-recovery',
   settleRecovery: 'rodwave:settle-recovery',
+  saveRefused: 'rodwave:save-refused',
   menuCommand: 'rodwave:menu-command',
   /** Added by the shell (event, main → window): a file chosen under File › Open recent.
    *  The window asks about unsaved changes as for Open, then calls openRecent(path). */
@@ -82,6 +83,7 @@ export interface ChannelTypes {
   [CHANNELS.readRecovery]: { request: void; response: RecoveredWork[] }
   [CHANNELS.clearRecovery]: { request: void; response: void }
   [CHANNELS.settleRecovery]: { request: string; response: void }
+  [CHANNELS.saveRefused]: { request: void; response: void }
 }
 
 /** What the preload exposes as window.rodwave (and the browser build provides itself). */
@@ -94,6 +96,8 @@ export interface RodwaveBridge {
   recentFiles(): Promise<string[]>
   demoProject(): Promise<{ name: string; text: string }>
   setDocumentState(state: DocumentState): Promise<void>
+  /** The window did not start a save it was asked for (the part has problems): a close waiting on it ends. */
+  saveRefused(): Promise<void>
   /** Writes this session's recovery copy (the autosave of unsaved work). */
   writeRecovery(text: string): Promise<void>
   /**

@@ -31,7 +31,7 @@ export interface ShellServices {
   readonly files: FileHandlers
   readonly recentFiles: RecentFiles
   readonly recovery: RecoveryStore
-  readonly closeGuard: Pick<CloseGuard, 'documentChanged' | 'saveStarted' | 'saveFinished'>
+  readonly closeGuard: Pick<CloseGuard, 'documentChanged' | 'saveStarted' | 'saveFinished' | 'saveRefused'>
 }
 
 export interface IpcRegistration {
@@ -64,6 +64,7 @@ const LABELS: Readonly<Record<string, string>> = {
   [CHANNELS.readRecovery]: 'Read recovery copy',
   [CHANNELS.clearRecovery]: 'Clear recovery copy',
   [CHANNELS.settleRecovery]: 'Remove earlier recovery copy',
+  [CHANNELS.saveRefused]: 'Save refused',
 }
 
 function spec<T>(schema: z.ZodType<T>, refusal: Refusal, run: (argument: T) => Promise<unknown>): ChannelSpec<unknown> {
@@ -95,6 +96,9 @@ function channelSpecs(services: ShellServices): Record<string, ChannelSpec<unkno
     [CHANNELS.readRecovery]: spec(noArgumentSchema, 'reject', () => recovery.startSession()),
     [CHANNELS.clearRecovery]: spec(noArgumentSchema, 'reject', () => recovery.clear()),
     [CHANNELS.settleRecovery]: spec(recoveryIdSchema, 'reject', (id) => recovery.settle(id)),
+    [CHANNELS.saveRefused]: spec(noArgumentSchema, 'reject', async () => {
+      closeGuard.saveRefused()
+    }),
   }
 }
 

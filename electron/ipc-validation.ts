@@ -50,10 +50,15 @@ export const exportRequestSchema = z.object({
   content: textUpTo(MAX_EXPORT_BYTES),
 }) satisfies z.ZodType<ExportRequest>
 
+/** A title too long for the window frame is shortened, never refused: the dirty flag beside it must always arrive. */
+export function shortTitle(title: string): string {
+  return title.length <= MAX_TITLE_LENGTH ? title : `${title.slice(0, MAX_TITLE_LENGTH - 1)}…`
+}
+
 export const documentStateSchema = z.object({
   dirty: z.boolean(),
-  title: z.string().max(MAX_TITLE_LENGTH, { error: `must be at most ${MAX_TITLE_LENGTH} characters` }),
-}) satisfies z.ZodType<DocumentState>
+  title: z.string().transform(shortTitle),
+}) satisfies z.ZodType<DocumentState, unknown>
 
 export const recoveryTextSchema = textUpTo(MAX_PROJECT_BYTES)
 

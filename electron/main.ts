@@ -145,6 +145,7 @@ registerIpcHandlers({
       documentChanged: (state) => closeGuard?.documentChanged(state),
       saveStarted: () => closeGuard?.saveStarted(),
       saveFinished: (result) => closeGuard?.saveFinished(result),
+      saveRefused: () => closeGuard?.saveRefused(),
     },
   },
   log: (message) => console.error(`[rodwave] ${message}`),

@@ -117,6 +117,9 @@ export function createBrowserBridge(options: BrowserBridgeOptions = {}): Rodwave
     async setDocumentState(state: DocumentState): Promise<void> {
       document.title = `${state.dirty ? '• ' : ''}${state.title || 'Untitled project'} — Rodwave`
     },
+    async saveRefused(): Promise<void> {
+      // No close waits on a save in a browser.
+    },
     async writeRecovery(text: string): Promise<void> {
       storage.setItem(RECOVERY_PREFIX + session, text)
       storage.setItem(RECOVERY_TIME_PREFIX + session, new Date().toISOString())

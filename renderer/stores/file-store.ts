@@ -253,6 +253,10 @@ export const useFileStore = defineStore('file', () => {
     if (text === null) {
       tell('error', `The part has ${project.issues.length} problem${project.issues.length === 1 ? '' : 's'}; fix ${project.issues.length === 1 ? 'it' : 'them'} before saving (unsaved work is kept for recovery meanwhile).`)
       view.activeView = 'part'
+      // A close waiting on this save (the desktop's "Save" in its close prompt) ends now, not after a timeout.
+      void useBridge()
+        .saveRefused()
+        .catch(() => undefined)
       return false
     }
     // What is written is the draft as it is now; edits made while the file is being written stay unsaved.

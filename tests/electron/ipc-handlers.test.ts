@@ -5,7 +5,7 @@
 import { beforeEach, describe, expect, it, vi } from 'vitest'
 import { CHANNELS } from '../../electron/ipc-contract'
 import { INVOKE_CHANNELS, registerIpcHandlers, type ShellServices } from '../../electron/ipc-handlers'
-import { MAX_PROJECT_BYTES } from '../../electron/ipc-validation'
+import { MAX_PROJECT_BYTES, MAX_TITLE_LENGTH } from '../../electron/ipc-validation'
 import type { IpcSenderInfo } from '../../electron/sender-check'
 
 vi.mock('electron', () => ({}))
@@ -35,7 +35,7 @@ function setup() {
       clear: vi.fn(async () => undefined),
       settle: vi.fn(async () => undefined),
     },
-    closeGuard: { documentChanged: vi.fn(), saveStarted: vi.fn(), saveFinished: vi.fn() },
+    closeGuard: { documentChanged: vi.fn(), saveStarted: vi.fn(), saveFinished: vi.fn(), saveRefused: vi.fn() },
   } satisfies ShellServices
   const log = vi.fn()
   const registered = registerIpcHandlers({ ipcMain, trustedWindow: () => window, services, log })
@@ -62,6 +62,7 @@ const VALID_ARGUMENTS: Record<string, unknown[]> = {
   [CHANNELS.readRecovery]: [],
   [CHANNELS.clearRecovery]: [],
   [CHANNELS.settleRecovery]: ['mhx1-0123456789ab'],
+  [CHANNELS.saveRefused]: [],
 }
 
 const RESULT_CHANNELS = new Set<string>([CHANNELS.openProject, CHANNELS.openRecent, CHANNELS.saveProject, CHANNELS.exportFile])
@@ -109,6 +110,23 @@ describe('registration', () => {
     expect(services.files.openRecent).toHaveBeenCalledWith('/home/eng/hanger.rodwave.json')
     await call(CHANNELS.setDocumentState, trusted, { dirty: true, title: 'Hanger' })
     expect(services.closeGuard.documentChanged).toHaveBeenCalledWith({ dirty: true, title: 'Hanger' })
+  })
+
+  it('tells the close guard when the window refuses a save', async () => {
+    const { call, trusted, services } = setup()
+    await call(CHANNELS.saveRefused, trusted)
+    expect(services.closeGuard.saveRefused).toHaveBeenCalledOnce()
+  })
+
+  it('shortens a title too long for the frame instead of refusing the state, so the unsaved mark always arrives', async () => {
+    const { call, trusted, services } = setup()
+    const title = 'Hanger rod '.repeat(60)
+    await call(CHANNELS.setDocumentState, trusted, { dirty: true, title })
+    expect(services.closeGuard.documentChanged).toHaveBeenCalledOnce()
+    const state = services.closeGuard.documentChanged.mock.calls[0]![0] as { dirty: boolean; title: string }
+    expect(state.dirty).toBe(true)
+    expect(state.title).toHaveLength(MAX_TITLE_LENGTH)
+    expect(state.title).toBe(`${title.slice(0, MAX_TITLE_LENGTH - 1)}…`)
   })
 
   it('tells the close guard when a save starts and how it ended', async () => {

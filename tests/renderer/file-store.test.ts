@@ -144,6 +144,8 @@ describe('file store', () => {
     expect(bridge.saved).toHaveLength(0)
     expect(files.notice?.kind).toBe('error')
     expect(files.notice?.text).toContain(`The part has ${problems} problem`)
+    // The desktop's close prompt, if it asked for this save, is told at once.
+    expect(bridge.saveRefusals).toBe(1)
   })
 
   it('writes unsaved work to the recovery file every few seconds', async () => {

@@ -54,6 +54,10 @@ export class MemoryBridge implements RodwaveBridge {
   async setDocumentState(state: { dirty: boolean; title: string }): Promise<void> {
     this.states.push(state)
   }
+  saveRefusals = 0
+  async saveRefused(): Promise<void> {
+    this.saveRefusals++
+  }
   async writeRecovery(text: string): Promise<void> {
     this.recoveryWrites.push(text)
     this.recovery = text
