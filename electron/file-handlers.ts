@@ -12,7 +12,7 @@ import { basename, dirname, join } from 'node:path'
 import type { OpenDialogOptions, SaveDialogOptions } from 'electron'
 import { decodeProjectBytes } from '../core/model/project-bytes'
 import { writeFileAtomic } from './atomic-write'
-import type { ExportKind, ExportRequest, OpenResult, SaveRequest, SaveResult } from './ipc-contract'
+import type { ExportKind, ExportRequest, SaveRequest, SaveResult, TextOpenResult } from './ipc-contract'
 import { MAX_PROJECT_BYTES, formatMegabytes } from './ipc-validation'
 import { recentFileKey, type RecentFiles } from './recent-files'
 
@@ -38,8 +38,8 @@ export interface FileHandlerDeps {
 }
 
 export interface FileHandlers {
-  openProject(): Promise<OpenResult>
-  openRecent(path: string): Promise<OpenResult>
+  openProject(): Promise<TextOpenResult>
+  openRecent(path: string): Promise<TextOpenResult>
   saveProject(request: SaveRequest): Promise<SaveResult>
   exportFile(request: ExportRequest): Promise<SaveResult>
   demoProject(): Promise<{ name: string; text: string }>
@@ -101,12 +101,12 @@ function withExtension(name: string, extension: string, accepted: readonly strin
 }
 
 /** Reads a project file as text: at most 20 MB, by the one rule for a project file's bytes (core/model/project-bytes). */
-export async function readProjectText(path: string): Promise<OpenResult> {
+export async function readProjectText(path: string): Promise<TextOpenResult> {
   const name = basename(path)
   try {
     const info = await stat(path)
     if (!info.isFile()) return { kind: 'error', message: `Could not open "${name}": it is not a file.` }
-    const tooLarge = (size: number): OpenResult => ({
+    const tooLarge = (size: number): TextOpenResult => ({
       kind: 'error',
       message: `Could not open "${name}": it is ${formatMegabytes(size)}, and Rodwave opens project files up to ${formatMegabytes(MAX_PROJECT_BYTES)}.`,
     })
@@ -149,7 +149,7 @@ export function createFileHandlers(deps: FileHandlerDeps): FileHandlers {
     return answer.canceled || answer.filePath === undefined || answer.filePath === '' ? null : answer.filePath
   }
 
-  async function openChosen(path: string): Promise<OpenResult> {
+  async function openChosen(path: string): Promise<TextOpenResult> {
     const result = await readProjectText(path)
     if (result.kind === 'opened') await remember(path)
     return result

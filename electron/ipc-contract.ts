@@ -6,16 +6,27 @@
  * instead of file dialogs).
  */
 
-/** Result of asking for a project file. `text` is the file's content, unparsed. */
+/**
+ * Result of asking for a project file: its content unparsed, as text (the desktop app reads
+ * and decodes the file in the main process) or as bytes (a browser upload, decoded with the
+ * parse in the solver worker, off the page's thread).
+ */
 export type OpenResult =
   | { readonly kind: 'opened'; readonly path: string; readonly name: string; readonly text: string }
+  | { readonly kind: 'opened'; readonly path: string; readonly name: string; readonly bytes: Uint8Array }
   | { readonly kind: 'cancelled' }
   | { readonly kind: 'error'; readonly message: string }
+
+/** What the desktop app's main process answers: a file is always sent as text. */
+export type TextOpenResult = Exclude<OpenResult, { readonly bytes: Uint8Array }>
 
 export type SaveResult =
   | { readonly kind: 'saved'; readonly path: string; readonly name: string }
   | { readonly kind: 'cancelled' }
   | { readonly kind: 'error'; readonly message: string }
+
+/** An export's outcome. A browser cannot write a PDF itself: it opens the report with the print dialog instead. */
+export type ExportResult = SaveResult | { readonly kind: 'print-dialog'; readonly name: string }
 
 export interface SaveRequest {
   /** Where to save; null asks for a place (Save As). */
@@ -92,7 +103,7 @@ export interface RodwaveBridge {
   openProject(): Promise<OpenResult>
   openRecent(path: string): Promise<OpenResult>
   saveProject(request: SaveRequest): Promise<SaveResult>
-  exportFile(request: ExportRequest): Promise<SaveResult>
+  exportFile(request: ExportRequest): Promise<ExportResult>
   recentFiles(): Promise<string[]>
   demoProject(): Promise<{ name: string; text: string }>
   setDocumentState(state: DocumentState): Promise<void>

@@ -51,50 +51,63 @@ function secondByteRange(lead: number): [number, number] {
   return [0x80, 0xbf]
 }
 
+/** Decoded UTF-16 code units → text, in slices small enough for one call. */
+function unitsToText(units: Uint16Array, from: number, to: number, parts: string[]): void {
+  for (let at = from; at < to; at += CHUNK_UNITS) {
+    parts.push(String.fromCharCode.apply(null, units.subarray(at, Math.min(at + CHUNK_UNITS, to)) as unknown as number[]))
+  }
+}
+
 /** Decodes a project file's bytes: the text, or why the bytes are not a UTF-8 text file. */
 export function decodeProjectBytes(bytes: Uint8Array): ProjectBytesResult {
   if ((bytes[0] === 0xff && bytes[1] === 0xfe) || (bytes[0] === 0xfe && bytes[1] === 0xff)) {
     return { ok: false, message: 'is UTF-16 text; Rodwave reads project files in UTF-8: save it as UTF-8 and open it again' }
   }
   const start = bytes[0] === 0xef && bytes[1] === 0xbb && bytes[2] === 0xbf ? 3 : 0
-  const units = new Uint16Array(CHUNK_UNITS + 1)
+  const end = bytes.length
   const parts: string[] = []
+  /** Decoded UTF-16 code units not yet turned into text. */
+  const units = new Uint16Array(CHUNK_UNITS + 1)
   let count = 0
   let i = start
-  while (i < bytes.length) {
+  while (i < end) {
     const lead = bytes[i]
     if (lead < 0x80) {
       units[count++] = lead
       i += 1
-    } else {
-      const length = sequenceLength(lead)
-      if (length === 0 || i + length > bytes.length) return invalid(bytes, i)
-      const [low, high] = secondByteRange(lead)
-      const second = bytes[i + 1]
-      if (second < low || second > high) return invalid(bytes, i)
-      for (let k = 2; k < length; k++) {
-        const next = bytes[i + k]
-        if (next < 0x80 || next > 0xbf) return invalid(bytes, i)
+      if (count >= CHUNK_UNITS) {
+        unitsToText(units, 0, count, parts)
+        count = 0
       }
-      let codePoint: number
-      if (length === 2) codePoint = ((lead & 0x1f) << 6) | (second & 0x3f)
-      else if (length === 3) codePoint = ((lead & 0x0f) << 12) | ((second & 0x3f) << 6) | (bytes[i + 2] & 0x3f)
-      else codePoint = ((lead & 0x07) << 18) | ((second & 0x3f) << 12) | ((bytes[i + 2] & 0x3f) << 6) | (bytes[i + 3] & 0x3f)
-      if (codePoint >= 0x10000) {
-        // Above the Basic Multilingual Plane: a UTF-16 surrogate pair.
-        const offset = codePoint - 0x10000
-        units[count++] = 0xd800 | (offset >> 10)
-        units[count++] = 0xdc00 | (offset & 0x3ff)
-      } else {
-        units[count++] = codePoint
-      }
-      i += length
+      continue
     }
+    const length = sequenceLength(lead)
+    if (length === 0 || i + length > end) return invalid(bytes, i)
+    const [low, high] = secondByteRange(lead)
+    const second = bytes[i + 1]
+    if (second < low || second > high) return invalid(bytes, i)
+    for (let k = 2; k < length; k++) {
+      const next = bytes[i + k]
+      if (next < 0x80 || next > 0xbf) return invalid(bytes, i)
+    }
+    let codePoint: number
+    if (length === 2) codePoint = ((lead & 0x1f) << 6) | (second & 0x3f)
+    else if (length === 3) codePoint = ((lead & 0x0f) << 12) | ((second & 0x3f) << 6) | (bytes[i + 2] & 0x3f)
+    else codePoint = ((lead & 0x07) << 18) | ((second & 0x3f) << 12) | ((bytes[i + 2] & 0x3f) << 6) | (bytes[i + 3] & 0x3f)
+    if (codePoint >= 0x10000) {
+      // Above the Basic Multilingual Plane: a UTF-16 surrogate pair.
+      const offset = codePoint - 0x10000
+      units[count++] = 0xd800 | (offset >> 10)
+      units[count++] = 0xdc00 | (offset & 0x3ff)
+    } else {
+      units[count++] = codePoint
+    }
+    i += length
     if (count >= CHUNK_UNITS) {
-      parts.push(String.fromCharCode(...units.subarray(0, count)))
+      unitsToText(units, 0, count, parts)
       count = 0
     }
   }
-  if (count > 0) parts.push(String.fromCharCode(...units.subarray(0, count)))
+  if (count > 0) unitsToText(units, 0, count, parts)
   return { ok: true, text: parts.join('') }
 }

@@ -4,7 +4,8 @@
  * the print dialog for PDF, recovery and recent files in localStorage, and the demo
  * project bundled into the page.
  */
-import type { DocumentState, ExportRequest, MenuCommand, OpenResult, RecoveredWork, RodwaveBridge, SaveRequest, SaveResult } from './contract'
+import type { DocumentState, ExportRequest, ExportResult, MenuCommand, OpenResult, RecoveredWork, RodwaveBridge, SaveRequest, SaveResult } from './contract'
+import { decodeProjectBytes, MAX_PROJECT_BYTES } from '../../core/model/project-bytes'
 import demoDocument from '../../examples/condensate-pump-hanger.rodwave.json'
 
 export const DEMO_NAME = 'condensate-pump-hanger.rodwave.json'
@@ -83,10 +84,18 @@ export function createBrowserBridge(options: BrowserBridgeOptions = {}): Rodwave
     async openProject(): Promise<OpenResult> {
       const file = await pickFile('.json,.rodwave.json,application/json')
       if (!file) return { kind: 'cancelled' }
+      // The size first: a file too large to be a project is never read into the page.
+      if (file.size > MAX_PROJECT_BYTES) {
+        return { kind: 'error', message: `Could not open "${file.name}": it is ${megabytes(file.size)}, and Rodwave opens project files up to ${megabytes(MAX_PROJECT_BYTES)}.` }
+      }
       try {
-        const text = await file.text()
-        remember(file.name, text)
-        return { kind: 'opened', path: file.name, name: file.name, text }
+        // The bytes go to the solver worker, which decodes, parses and validates them off the page's thread.
+        const bytes = new Uint8Array(await file.arrayBuffer())
+        if (bytes.byteLength <= RECENT_TEXT_LIMIT) {
+          const decoded = decodeProjectBytes(bytes)
+          if (decoded.ok) remember(file.name, decoded.text)
+        }
+        return { kind: 'opened', path: file.name, name: file.name, bytes }
       } catch (error) {
         return { kind: 'error', message: `Could not read ${file.name}: ${error instanceof Error ? error.message : String(error)}` }
       }
@@ -102,7 +111,7 @@ export function createBrowserBridge(options: BrowserBridgeOptions = {}): Rodwave
       remember(name, request.text)
       return { kind: 'saved', path: name, name }
     },
-    async exportFile(request: ExportRequest): Promise<SaveResult> {
+    async exportFile(request: ExportRequest): Promise<ExportResult> {
       if (request.kind === 'pdf') return printReport(request)
       const name = ensureExtension(request.suggestedName, `.${request.kind}`)
       download(name, request.content, MIME[request.kind])
@@ -150,6 +159,10 @@ export function createBrowserBridge(options: BrowserBridgeOptions = {}): Rodwave
   }
 }
 
+function megabytes(bytes: number): string {
+  return `${(bytes / (1024 * 1024)).toFixed(1)} MB`
+}
+
 function newSessionId(): string {
   const random = new Uint8Array(6)
   crypto.getRandomValues(random)
@@ -191,8 +204,8 @@ function download(name: string, content: string, type: string): void {
   setTimeout(() => URL.revokeObjectURL(url), 60_000)
 }
 
-/** PDF in a browser: the report opens in a new tab and the browser's print dialog saves it. */
-function printReport(request: ExportRequest): SaveResult {
+/** PDF in a browser: the report opens in a new tab with the browser's print dialog, where the user saves it as PDF. */
+function printReport(request: ExportRequest): ExportResult {
   const url = URL.createObjectURL(new Blob([request.content], { type: 'text/html;charset=utf-8' }))
   const view = window.open(url, '_blank')
   if (!view) {
@@ -201,5 +214,5 @@ function printReport(request: ExportRequest): SaveResult {
   }
   view.addEventListener('load', () => view.print(), { once: true })
   setTimeout(() => URL.revokeObjectURL(url), 600_000)
-  return { kind: 'saved', path: request.suggestedName, name: request.suggestedName }
+  return { kind: 'print-dialog', name: request.suggestedName }
 }

@@ -6,9 +6,9 @@
  */
 import { defineStore } from 'pinia'
 import { computed, ref, watch } from 'vue'
-import type { ExportKind, MenuCommand, OpenResult, RecoveredWork } from '../bridge/contract'
+import type { ExportKind, ExportResult, MenuCommand, OpenResult, RecoveredWork } from '../bridge/contract'
 import { newProject } from '../../core/model/project-file'
-import { readProjectText, type ProjectIssue } from '../../core/model/project-schema'
+import { readProjectText, type ProjectIssue, type ProjectReadResult } from '../../core/model/project-schema'
 import type { Project } from '../../core/model/project'
 import { version as appVersion } from '../../package.json'
 import { useBridge } from '../bridge/bridge'
@@ -107,7 +107,17 @@ export const useFileStore = defineStore('file', () => {
       tell('error', result.message)
       return
     }
-    const read = readProjectText(result.text)
+    // Decoding, parsing and validating a file (up to 20 MB) run in the solver worker, never on this thread.
+    let read: ProjectReadResult
+    busy.value = `Reading ${result.name}…`
+    try {
+      read = await useSolver().readProject('bytes' in result ? { bytes: result.bytes } : { text: result.text })
+    } catch (error) {
+      tell('error', `Could not read "${result.name}": ${error instanceof Error ? error.message : String(error)}`)
+      return
+    } finally {
+      busy.value = null
+    }
     if (!read.ok) {
       refused.value = { name: result.name, issues: read.issues }
       return
@@ -290,7 +300,13 @@ export const useFileStore = defineStore('file', () => {
     }
     if (results.stale) tell('info', 'The part has changed since these results; exporting the last solved model.')
     const result = await useBridge().exportFile({ kind: 'csv', suggestedName: suggestedName('-modal-summary.csv'), content: solved.summaryCsv })
+    reportExport(result)
+  }
+
+  /** Says what an export did: a file written, the print dialog opened (a browser's PDF), or why not. */
+  function reportExport(result: ExportResult): void {
     if (result.kind === 'saved') tell('info', `Exported ${result.name}`)
+    else if (result.kind === 'print-dialog') tell('info', 'The report opened in a new tab with the print dialog; no file was written yet. To keep a PDF, choose “Save as PDF” as the printer there.')
     else if (result.kind === 'error') tell('error', result.message)
   }
 
@@ -310,8 +326,7 @@ export const useFileStore = defineStore('file', () => {
         appVersion,
       })
       const result = await useBridge().exportFile({ kind, suggestedName: suggestedName(kind === 'pdf' ? '-report.pdf' : '-report.html'), content: html })
-      if (result.kind === 'saved') tell('info', `Exported ${result.name}`)
-      else if (result.kind === 'error') tell('error', result.message)
+      reportExport(result)
     } catch (error) {
       tell('error', `The report could not be written: ${error instanceof Error ? error.message : String(error)}`)
     } finally {

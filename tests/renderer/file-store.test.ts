@@ -17,6 +17,10 @@ import { useProjectStore } from '../../renderer/stores/project-store'
 import { useResultsStore } from '../../renderer/stores/results-store'
 import { useViewStore } from '../../renderer/stores/view-store'
 import * as edits from '../../renderer/stores/project-edits'
+import { useSolver } from '../../renderer/solver/solver-client'
+import { decodeProjectBytes } from '../../core/model/project-bytes'
+import AppHeader from '../../renderer/components/AppHeader.vue'
+import { mount } from '@vue/test-utils'
 import { DEMO_TEXT, freshApp, MemoryBridge, settle } from './renderer-helpers'
 
 function demo() {
@@ -94,6 +98,57 @@ describe('file store', () => {
     await settle()
     expect(useProjectStore().fileName).toBe('short.rodwave.json')
     expect(useResultsStore().firstElastic?.frequencyHz).toBe(analyseProject(other).modes[0].frequencyHz)
+  })
+
+  it('reads a browser upload’s bytes in the solver (decode, parse, validate), byte-order mark and all', async () => {
+    const other = { ...demo(), title: 'Uploaded hanger' }
+    const bytes = new Uint8Array([0xef, 0xbb, 0xbf, ...new TextEncoder().encode(writeProjectText(other))])
+    const readProject = vi.spyOn(useSolver(), 'readProject')
+    bridge.nextOpen = { kind: 'opened', path: 'up.rodwave.json', name: 'up.rodwave.json', bytes }
+    await useFileStore().open()
+    await settle()
+    expect(readProject).toHaveBeenCalledExactlyOnceWith({ bytes })
+    expect(useProjectStore().draft.title).toBe('Uploaded hanger')
+    expect(useProjectStore().dirty).toBe(false)
+  })
+
+  it('refuses an upload that is not UTF-8 with core’s message, keeping the model on screen', async () => {
+    const before = useProjectStore().draftText
+    const bytes = new TextEncoder().encode(writeProjectText({ ...demo(), title: 'caf?' }))
+    bytes[bytes.indexOf(0x3f)] = 0xe9
+    const expected = decodeProjectBytes(bytes)
+    if (expected.ok) throw new Error('fixture: Latin-1 é must not be UTF-8')
+    bridge.nextOpen = { kind: 'opened', path: 'latin1.rodwave.json', name: 'latin1.rodwave.json', bytes }
+    await useFileStore().open()
+    expect(useFileStore().refused).toEqual({ name: 'latin1.rodwave.json', issues: [{ path: '(file)', message: expected.message }] })
+    expect(useProjectStore().draftText).toBe(before)
+  })
+
+  it('says that a browser’s PDF export opened the print dialog, not that a file was written', async () => {
+    bridge.exportFile = async () => ({ kind: 'print-dialog', name: 'condensate-pump-hanger-report.pdf' })
+    await useFileStore().runCommand('export-report-pdf')
+    expect(useFileStore().notice?.text).toMatch(/^The report opened in a new tab with the print dialog; no file was written yet\./)
+    expect(useFileStore().notice?.text).not.toMatch(/Exported/)
+  })
+
+  it('shows the part’s title in the header after Open and Save As, the file name beside it', async () => {
+    const other = { ...demo(), title: 'Tie rod T-4, fan housing' }
+    bridge.nextOpen = { kind: 'opened', path: '/p/t4.rodwave.json', name: 't4.rodwave.json', text: writeProjectText(other) }
+    await useFileStore().open()
+    await settle()
+    const header = mount(AppHeader)
+    expect(header.get('[data-testid="document-name"]').text()).toBe('Tie rod T-4, fan housing')
+    expect(header.get('[data-testid="document-file"]').text()).toBe('t4.rodwave.json')
+    await useFileStore().runCommand('save-as')
+    await settle()
+    expect(header.get('[data-testid="document-name"]').text()).toBe('Tie rod T-4, fan housing')
+    expect(header.get('[data-testid="document-file"]').text()).toBe('t4.rodwave.json')
+    // A part without a title is named by its file.
+    useProjectStore().edit((p) => (p.title = '  '))
+    await settle()
+    expect(header.get('[data-testid="document-name"]').text()).toBe('t4.rodwave.json')
+    expect(header.find('[data-testid="document-file"]').exists()).toBe(false)
+    header.unmount()
   })
 
   it('saves the project file, marks it clean and clears the recovery copy', async () => {
