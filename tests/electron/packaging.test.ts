@@ -8,6 +8,7 @@ import { join } from 'node:path'
 import { fileURLToPath } from 'node:url'
 import { describe, expect, it, vi } from 'vitest'
 import { DEMO_PROJECT_FILE } from '../../electron/app-paths'
+import { NOTICES_FILE } from '../../build/third-party-notices'
 
 vi.mock('electron', () => ({}))
 
@@ -56,6 +57,17 @@ describe('electron-builder configuration', () => {
     expect(patterns).toEqual(expect.arrayContaining(['dist/**', 'package.json']))
     expect(patterns.filter((pattern) => !pattern.startsWith('!'))).toEqual(['dist/**', 'package.json'])
     expect(config.asar).toBe(true)
+  })
+
+  it('packs the third-party notices the build writes beside the window and the desktop shell', async () => {
+    const config = await loadConfig()
+    const patterns = (config.files as { filter?: string[] }[]).flatMap((set) => set.filter ?? [])
+    const { minimatch } = await import('minimatch')
+    for (const file of [`dist/renderer/${NOTICES_FILE}`, `dist/electron/${NOTICES_FILE}`]) {
+      const included = patterns.some((pattern) => !pattern.startsWith('!') && minimatch(file, pattern))
+      const excluded = patterns.some((pattern) => pattern.startsWith('!') && minimatch(file, pattern.slice(1)))
+      expect({ file, packed: included && !excluded }).toEqual({ file, packed: true })
+    }
   })
 
   it('ships the demo project as an extra resource under examples/', async () => {
