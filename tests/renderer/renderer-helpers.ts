@@ -2,7 +2,7 @@
 import { readFileSync } from 'node:fs'
 import { join } from 'node:path'
 import { createPinia, setActivePinia } from 'pinia'
-import type { ExportRequest, MenuCommand, OpenResult, RecoveredWork, RodwaveBridge, SaveRequest } from '../../renderer/bridge/contract'
+import type { ExportRequest, ExportResult, MenuCommand, OpenResult, RecoveredWork, RodwaveBridge, SaveRequest } from '../../renderer/bridge/contract'
 import { setBridge } from '../../renderer/bridge/bridge'
 import { createInlineSolverClient, setSolver } from '../../renderer/solver/solver-client'
 
@@ -41,7 +41,7 @@ export class MemoryBridge implements RodwaveBridge {
     const name = request.path ?? request.suggestedName
     return { kind: 'saved' as const, path: `/projects/${name}`, name }
   }
-  async exportFile(request: ExportRequest) {
+  async exportFile(request: ExportRequest): Promise<ExportResult> {
     this.exported.push(request)
     return { kind: 'saved' as const, path: `/exports/${request.suggestedName}`, name: request.suggestedName }
   }
