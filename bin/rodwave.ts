@@ -2,6 +2,7 @@
 /** Entry point of the command line: binds runCli to the real file system and streams. */
 import { readFile, stat, writeFile } from 'node:fs/promises'
 import { MAX_FILE_CHARACTERS } from '../core/model/project-schema'
+import { decodeProjectBytes } from '../core/model/project-bytes'
 import { runCli } from './cli'
 
 /** Reads a project file, refusing one too large to be a project before loading it into memory. */
@@ -11,7 +12,10 @@ async function readProjectFile(path: string): Promise<string> {
   if (info.size > 4 * MAX_FILE_CHARACTERS) {
     throw Object.assign(new Error(`it is ${(info.size / 1e6).toFixed(0)} MB; a project file may have at most ${MAX_FILE_CHARACTERS / 1e6} million characters`), { code: 'EFBIG' })
   }
-  return readFile(path, 'utf8')
+  // The one rule for a project file's bytes (core/model/project-bytes): UTF-8, byte-order mark allowed.
+  const decoded = decodeProjectBytes(await readFile(path))
+  if (!decoded.ok) throw new Error(`it ${decoded.message}`)
+  return decoded.text
 }
 
 runCli(process.argv.slice(2), {

@@ -1,9 +1,10 @@
 /**
  * Atomic file replacement: the target is at every instant either its previous content or
  * the complete new content, never a mix. Steps: write a temporary file in the same folder,
- * fsync it, optionally keep the previous file as `<name>.bak`, rename the temporary file
- * over the target (atomic on POSIX file systems and on NTFS), then fsync the folder so the
- * rename itself survives a power cut where the platform allows it.
+ * fsync it, optionally keep the previous file as `<name>.bak` (copied to its own temporary
+ * file, fsynced, renamed), rename the temporary file over the target (atomic on POSIX file
+ * systems and on NTFS), then fsync the folder so the renames themselves survive a power cut
+ * where the platform allows it.
  */
 import { randomBytes } from 'node:crypto'
 import { constants as fsConstants } from 'node:fs'
@@ -147,12 +148,26 @@ async function removeStaleTemps(target: string): Promise<void> {
   await Promise.all(stale.map((name) => removeQuietly(join(dirname(target), name))))
 }
 
-/** Copies the current target to `<target>.bak` through its own temporary file, so the backup is never partial either. */
+/** Flushes a file's content to the disk, so a rename that follows never exposes an empty file after a power cut. */
+async function syncFile(path: string): Promise<void> {
+  const handle = await open(path, 'r+')
+  try {
+    await handle.sync()
+  } finally {
+    await handle.close()
+  }
+}
+
+/**
+ * Copies the current target to `<target>.bak` through its own temporary file, flushed to the
+ * disk like the target's, so the backup is never partial or empty either.
+ */
 async function keepBackupOf(target: string): Promise<void> {
   const backup = backupPathFor(target)
   const temp = tempPathFor(backup)
   try {
     await copyFile(target, temp, fsConstants.COPYFILE_EXCL)
+    await syncFile(temp)
     await renameWithRetry(temp, backup)
   } catch (error) {
     await removeQuietly(temp)

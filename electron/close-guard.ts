@@ -9,7 +9,9 @@
  * start (or finish reporting) the save in time, the close is simply dropped and the window
  * stays open with the work in it. The deadline covers the parts that need no user
  * (starting the save, reporting clean), never the save dialog itself; so a later, unrelated
- * save can never close the window by surprise.
+ * save can never close the window by surprise. When the window refuses the save (the part
+ * has problems it must not be saved with) it says so and the close ends at once; and a close
+ * click while the guard waits on the window asks again rather than being dropped.
  */
 import type { DocumentState, SaveResult } from './ipc-contract'
 
@@ -43,6 +45,8 @@ export interface CloseGuard {
   saveStarted(): void
   /** saveProject finished with this result. */
   saveFinished(result: SaveResult): void
+  /** The window refused to start a save (the part has problems): a close waiting on it ends. */
+  saveRefused(): void
 }
 
 /** "Hanger rod H-3 — Rodwave", with a leading "•" while there are unsaved changes. */
@@ -114,8 +118,14 @@ export function createCloseGuard(deps: CloseGuardDeps): CloseGuard {
     closeRequested(event) {
       if (closeAllowed || !state.dirty) return
       event.preventDefault()
-      if (phase !== 'idle') return
+      // While the question or the save dialog is open the click is theirs; while the guard
+      // only waits on the window, the user is asked again.
+      if (phase === 'asking' || phase === 'saving') return
+      if (phase !== 'idle') stopTimer()
       void ask()
+    },
+    saveRefused() {
+      if (phase === 'awaiting-save-start') abandon()
     },
     saveStarted() {
       if (phase !== 'awaiting-save-start') return

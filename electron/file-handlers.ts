@@ -10,8 +10,9 @@
 import { readFile, stat } from 'node:fs/promises'
 import { basename, dirname, join } from 'node:path'
 import type { OpenDialogOptions, SaveDialogOptions } from 'electron'
+import { decodeProjectBytes } from '../core/model/project-bytes'
 import { writeFileAtomic } from './atomic-write'
-import type { ExportKind, ExportRequest, OpenResult, SaveRequest, SaveResult } from './ipc-contract'
+import type { ExportKind, ExportRequest, SaveRequest, SaveResult, TextOpenResult } from './ipc-contract'
 import { MAX_PROJECT_BYTES, formatMegabytes } from './ipc-validation'
 import { recentFileKey, type RecentFiles } from './recent-files'
 
@@ -37,8 +38,8 @@ export interface FileHandlerDeps {
 }
 
 export interface FileHandlers {
-  openProject(): Promise<OpenResult>
-  openRecent(path: string): Promise<OpenResult>
+  openProject(): Promise<TextOpenResult>
+  openRecent(path: string): Promise<TextOpenResult>
   saveProject(request: SaveRequest): Promise<SaveResult>
   exportFile(request: ExportRequest): Promise<SaveResult>
   demoProject(): Promise<{ name: string; text: string }>
@@ -99,26 +100,22 @@ function withExtension(name: string, extension: string, accepted: readonly strin
   return accepted.some((ending) => lower.endsWith(ending)) ? name : `${name}${extension}`
 }
 
-/** Reads a project file as text: at most 20 MB, UTF-8, byte-order mark removed. */
-export async function readProjectText(path: string): Promise<OpenResult> {
+/** Reads a project file as text: at most 20 MB, by the one rule for a project file's bytes (core/model/project-bytes). */
+export async function readProjectText(path: string): Promise<TextOpenResult> {
   const name = basename(path)
   try {
     const info = await stat(path)
     if (!info.isFile()) return { kind: 'error', message: `Could not open "${name}": it is not a file.` }
-    const tooLarge = (size: number): OpenResult => ({
+    const tooLarge = (size: number): TextOpenResult => ({
       kind: 'error',
       message: `Could not open "${name}": it is ${formatMegabytes(size)}, and Rodwave opens project files up to ${formatMegabytes(MAX_PROJECT_BYTES)}.`,
     })
     if (info.size > MAX_PROJECT_BYTES) return tooLarge(info.size)
     const bytes = await readFile(path)
     if (bytes.byteLength > MAX_PROJECT_BYTES) return tooLarge(bytes.byteLength)
-    let text: string
-    try {
-      text = new TextDecoder('utf-8', { fatal: true }).decode(bytes)
-    } catch {
-      return { kind: 'error', message: `Could not open "${name}": it is not UTF-8 text, so it is not a Rodwave project file.` }
-    }
-    return { kind: 'opened', path, name, text: text.startsWith(UTF8_BOM) ? text.slice(1) : text }
+    const decoded = decodeProjectBytes(bytes)
+    if (!decoded.ok) return { kind: 'error', message: `Could not open "${name}": it ${decoded.message}.` }
+    return { kind: 'opened', path, name, text: decoded.text }
   } catch (error) {
     return { kind: 'error', message: describeFileError(error, 'open', path) }
   }
@@ -152,7 +149,7 @@ export function createFileHandlers(deps: FileHandlerDeps): FileHandlers {
     return answer.canceled || answer.filePath === undefined || answer.filePath === '' ? null : answer.filePath
   }
 
-  async function openChosen(path: string): Promise<OpenResult> {
+  async function openChosen(path: string): Promise<TextOpenResult> {
     const result = await readProjectText(path)
     if (result.kind === 'opened') await remember(path)
     return result

@@ -6,16 +6,27 @@
  * instead of file dialogs).
  */
 
-/** Result of asking for a project file. `text` is the file's content, unparsed. */
+/**
+ * Result of asking for a project file: its content unparsed, as text (the desktop app reads
+ * and decodes the file in the main process) or as bytes (a browser upload, decoded with the
+ * parse in the solver worker, off the page's thread).
+ */
 export type OpenResult =
   | { readonly kind: 'opened'; readonly path: string; readonly name: string; readonly text: string }
+  | { readonly kind: 'opened'; readonly path: string; readonly name: string; readonly bytes: Uint8Array }
   | { readonly kind: 'cancelled' }
   | { readonly kind: 'error'; readonly message: string }
+
+/** What the desktop app's main process answers: a file is always sent as text. */
+export type TextOpenResult = Exclude<OpenResult, { readonly bytes: Uint8Array }>
 
 export type SaveResult =
   | { readonly kind: 'saved'; readonly path: string; readonly name: string }
   | { readonly kind: 'cancelled' }
   | { readonly kind: 'error'; readonly message: string }
+
+/** An export's outcome. A browser cannot write a PDF itself: it opens the report with the print dialog instead. */
+export type ExportResult = SaveResult | { readonly kind: 'print-dialog'; readonly name: string }
 
 export interface SaveRequest {
   /** Where to save; null asks for a place (Save As). */
@@ -37,6 +48,15 @@ export interface ExportRequest {
 /** Commands from the application menu, forwarded to the window. */
 export type MenuCommand = 'new' | 'open' | 'save' | 'save-as' | 'export-csv' | 'export-report-html' | 'export-report-pdf' | 'undo' | 'redo' | 'cautions'
 
+/** Unsaved work an earlier session left (see electron/recovery.ts). */
+export interface RecoveredWork {
+  /** Names the copy for settleRecovery. */
+  readonly id: string
+  readonly text: string
+  /** When it was last written (ISO 8601), if known. */
+  readonly savedAt: string | null
+}
+
 export interface DocumentState {
   readonly dirty: boolean
   readonly title: string
@@ -54,6 +74,8 @@ export const CHANNELS = {
   writeRecovery: 'rodwave:write-recovery',
   readRecovery: 'rodwave:read-recovery',
   clearRecovery: 'rodwave:clear-recovery',
+  settleRecovery: 'rodwave:settle-recovery',
+  saveRefused: 'rodwave:save-refused',
   menuCommand: 'rodwave:menu-command',
   /** Added by the shell (event, main → window): a file chosen under File › Open recent.
    *  The window asks about unsaved changes as for Open, then calls openRecent(path). */
@@ -69,8 +91,10 @@ export interface ChannelTypes {
   [CHANNELS.demoProject]: { request: void; response: { name: string; text: string } }
   [CHANNELS.setDocumentState]: { request: DocumentState; response: void }
   [CHANNELS.writeRecovery]: { request: string; response: void }
-  [CHANNELS.readRecovery]: { request: void; response: string | null }
+  [CHANNELS.readRecovery]: { request: void; response: RecoveredWork[] }
   [CHANNELS.clearRecovery]: { request: void; response: void }
+  [CHANNELS.settleRecovery]: { request: string; response: void }
+  [CHANNELS.saveRefused]: { request: void; response: void }
 }
 
 /** What the preload exposes as window.rodwave (and the browser build provides itself). */
@@ -79,13 +103,24 @@ export interface RodwaveBridge {
   openProject(): Promise<OpenResult>
   openRecent(path: string): Promise<OpenResult>
   saveProject(request: SaveRequest): Promise<SaveResult>
-  exportFile(request: ExportRequest): Promise<SaveResult>
+  exportFile(request: ExportRequest): Promise<ExportResult>
   recentFiles(): Promise<string[]>
   demoProject(): Promise<{ name: string; text: string }>
   setDocumentState(state: DocumentState): Promise<void>
+  /** The window did not start a save it was asked for (the part has problems): a close waiting on it ends. */
+  saveRefused(): Promise<void>
+  /** Writes this session's recovery copy (the autosave of unsaved work). */
   writeRecovery(text: string): Promise<void>
-  readRecovery(): Promise<string | null>
+  /**
+   * Called once when the window starts: begins this session's recovery copy (a file of its
+   * own) and returns the copies earlier sessions left that the user has not decided on yet,
+   * newest first. They stay until settleRecovery.
+   */
+  readRecovery(): Promise<RecoveredWork[]>
+  /** Removes this session's recovery copy. */
   clearRecovery(): Promise<void>
+  /** The user restored or discarded the earlier copy `id`: it is removed. */
+  settleRecovery(id: string): Promise<void>
   /** Subscribes to menu commands; returns the unsubscribe function. */
   onMenuCommand(listener: (command: MenuCommand) => void): () => void
   /** Added by the shell, optional (the browser build has no application menu): subscribes

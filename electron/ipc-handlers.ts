@@ -13,6 +13,7 @@ import {
   exportRequestSchema,
   filePathSchema,
   noArgumentSchema,
+  recoveryIdSchema,
   recoveryTextSchema,
   saveRequestSchema,
 } from './ipc-validation'
@@ -30,7 +31,7 @@ export interface ShellServices {
   readonly files: FileHandlers
   readonly recentFiles: RecentFiles
   readonly recovery: RecoveryStore
-  readonly closeGuard: Pick<CloseGuard, 'documentChanged' | 'saveStarted' | 'saveFinished'>
+  readonly closeGuard: Pick<CloseGuard, 'documentChanged' | 'saveStarted' | 'saveFinished' | 'saveRefused'>
 }
 
 export interface IpcRegistration {
@@ -62,6 +63,8 @@ const LABELS: Readonly<Record<string, string>> = {
   [CHANNELS.writeRecovery]: 'Write recovery copy',
   [CHANNELS.readRecovery]: 'Read recovery copy',
   [CHANNELS.clearRecovery]: 'Clear recovery copy',
+  [CHANNELS.settleRecovery]: 'Remove earlier recovery copy',
+  [CHANNELS.saveRefused]: 'Save refused',
 }
 
 function spec<T>(schema: z.ZodType<T>, refusal: Refusal, run: (argument: T) => Promise<unknown>): ChannelSpec<unknown> {
@@ -90,8 +93,12 @@ function channelSpecs(services: ShellServices): Record<string, ChannelSpec<unkno
       closeGuard.documentChanged(state)
     }),
     [CHANNELS.writeRecovery]: spec(recoveryTextSchema, 'reject', (text) => recovery.write(text)),
-    [CHANNELS.readRecovery]: spec(noArgumentSchema, 'reject', () => recovery.read()),
+    [CHANNELS.readRecovery]: spec(noArgumentSchema, 'reject', () => recovery.startSession()),
     [CHANNELS.clearRecovery]: spec(noArgumentSchema, 'reject', () => recovery.clear()),
+    [CHANNELS.settleRecovery]: spec(recoveryIdSchema, 'reject', (id) => recovery.settle(id)),
+    [CHANNELS.saveRefused]: spec(noArgumentSchema, 'reject', async () => {
+      closeGuard.saveRefused()
+    }),
   }
 }
 

@@ -4,11 +4,13 @@
  */
 import { isAbsolute } from 'node:path'
 import { z } from 'zod'
+import { MAX_PROJECT_BYTES } from '../core/model/project-bytes'
 import type { DocumentState, ExportRequest, SaveRequest } from './ipc-contract'
+import { RECOVERY_ID_PATTERN } from './recovery'
 
 const MEGABYTE = 1024 * 1024
-/** Largest project file Rodwave opens or saves (so whatever it saves, it can open again). */
-export const MAX_PROJECT_BYTES = 20 * MEGABYTE
+/** Largest project file Rodwave opens or saves (so whatever it saves, it can open again): core's one limit. */
+export { MAX_PROJECT_BYTES }
 /** Largest export: a report's HTML with its charts as inline SVG. */
 export const MAX_EXPORT_BYTES = 50 * MEGABYTE
 export const MAX_PATH_LENGTH = 4096
@@ -48,12 +50,19 @@ export const exportRequestSchema = z.object({
   content: textUpTo(MAX_EXPORT_BYTES),
 }) satisfies z.ZodType<ExportRequest>
 
+/** A title too long for the window frame is shortened, never refused: the dirty flag beside it must always arrive. */
+export function shortTitle(title: string): string {
+  return title.length <= MAX_TITLE_LENGTH ? title : `${title.slice(0, MAX_TITLE_LENGTH - 1)}…`
+}
+
 export const documentStateSchema = z.object({
   dirty: z.boolean(),
-  title: z.string().max(MAX_TITLE_LENGTH, { error: `must be at most ${MAX_TITLE_LENGTH} characters` }),
-}) satisfies z.ZodType<DocumentState>
+  title: z.string().transform(shortTitle),
+}) satisfies z.ZodType<DocumentState, unknown>
 
 export const recoveryTextSchema = textUpTo(MAX_PROJECT_BYTES)
+
+export const recoveryIdSchema = z.string().regex(RECOVERY_ID_PATTERN, { error: 'must name a recovery copy' })
 
 /** For channels without a request: any argument at all is a mistake. */
 export const noArgumentSchema = z.undefined({ error: 'this request takes no argument' })

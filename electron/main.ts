@@ -13,11 +13,12 @@ import { createCloseGuard, type CloseGuard, type UnsavedAnswer } from './close-g
 import { createFileHandlers } from './file-handlers'
 import { CHANNELS, type MenuCommand } from './ipc-contract'
 import { registerIpcHandlers } from './ipc-handlers'
-import { aboutText, applicationMenuTemplate } from './menu'
+import { showAbout, THIRD_PARTY_NOTICES_URL } from './about'
+import { applicationMenuTemplate } from './menu'
 import { renderReportPdf } from './pdf-export'
 import { createRecentFiles, recentFilesInFile } from './recent-files'
 import { createRecoveryStore } from './recovery'
-import { denyPermissions, guardWebContents, mainWindowOptions, PDF_EXPORT_PARTITION } from './window-options'
+import { denyPermissions, guardWebContents, mainWindowOptions, noticesWindowOptions, PDF_EXPORT_PARTITION } from './window-options'
 
 // Before the app is ready: the app scheme's privileges, sandbox for every renderer, a stable user-data folder name.
 protocol.registerSchemesAsPrivileged([{ scheme: APP_SCHEME, privileges: APP_SCHEME_PRIVILEGES }])
@@ -30,6 +31,7 @@ const recentFiles = createRecentFiles(recentFilesInFile(join(userData, RECENT_FI
 const recovery = createRecoveryStore(userData)
 
 let mainWindow: BrowserWindow | null = null
+let noticesWindow: BrowserWindow | null = null
 let closeGuard: CloseGuard | null = null
 let quitting = false
 
@@ -48,10 +50,25 @@ async function refreshMenu(files?: string[]): Promise<void> {
       send: (command: MenuCommand) => sendToWindow(CHANNELS.menuCommand, command),
       openRecent: (path) => sendToWindow(CHANNELS.openRecentRequest, path),
       clearRecent: () => void recentFiles.clear().then(() => refreshMenu([])),
-      showAbout: () => void dialog.showMessageBox({ type: 'info', title: 'About Rodwave', buttons: ['Close'], ...aboutText(app.getVersion()) }),
+      showAbout: () => void showAbout(app.getVersion(), { showMessageBox: (options) => dialog.showMessageBox(options), showNotices: showThirdPartyNotices }),
     },
   )
   Menu.setApplicationMenu(Menu.buildFromTemplate(template))
+}
+
+/** The third-party notices in a window of their own (one at a time), closed with the main window. */
+function showThirdPartyNotices(): void {
+  if (noticesWindow !== null && !noticesWindow.isDestroyed()) {
+    noticesWindow.focus()
+    return
+  }
+  const window = new BrowserWindow(noticesWindowOptions(mainWindow ?? undefined))
+  noticesWindow = window
+  window.on('page-title-updated', (event) => event.preventDefault())
+  window.on('closed', () => {
+    if (noticesWindow === window) noticesWindow = null
+  })
+  void window.loadURL(THIRD_PARTY_NOTICES_URL)
 }
 
 const files = createFileHandlers({
@@ -145,6 +162,7 @@ registerIpcHandlers({
       documentChanged: (state) => closeGuard?.documentChanged(state),
       saveStarted: () => closeGuard?.saveStarted(),
       saveFinished: (result) => closeGuard?.saveFinished(result),
+      saveRefused: () => closeGuard?.saveRefused(),
     },
   },
   log: (message) => console.error(`[rodwave] ${message}`),

@@ -43,9 +43,11 @@ const bridge: RodwaveBridge = {
   recentFiles: () => ipcRenderer.invoke(CHANNELS.recentFiles),
   demoProject: () => ipcRenderer.invoke(CHANNELS.demoProject),
   setDocumentState: (state) => ipcRenderer.invoke(CHANNELS.setDocumentState, state),
+  saveRefused: () => ipcRenderer.invoke(CHANNELS.saveRefused),
   writeRecovery: (text) => ipcRenderer.invoke(CHANNELS.writeRecovery, text),
   readRecovery: () => ipcRenderer.invoke(CHANNELS.readRecovery),
   clearRecovery: () => ipcRenderer.invoke(CHANNELS.clearRecovery),
+  settleRecovery: (id) => ipcRenderer.invoke(CHANNELS.settleRecovery, id),
   onMenuCommand: (listener) => subscribe(CHANNELS.menuCommand, isMenuCommand, listener),
   onOpenRecentRequest: (listener) => subscribe(CHANNELS.openRecentRequest, isPath, listener),
 }

@@ -61,6 +61,20 @@ export function pdfWindowOptions(): BrowserWindowConstructorOptions {
   }
 }
 
+/** The third-party notices: a plain text page of the app's own bundle, no preload, no script, closed with its parent. */
+export function noticesWindowOptions(parent?: BrowserWindowConstructorOptions['parent']): BrowserWindowConstructorOptions {
+  return {
+    width: 820,
+    height: 680,
+    title: 'Rodwave: third-party notices',
+    ...(parent === undefined ? {} : { parent }),
+    webPreferences: {
+      javascript: false,
+      ...LOCKED_DOWN,
+    },
+  }
+}
+
 type NavigationEvent = { preventDefault(): void }
 type GuardedWebContents = Pick<WebContents, 'setWindowOpenHandler'> & {
   on(event: 'will-navigate' | 'will-redirect', listener: (event: NavigationEvent, url: string) => void): unknown

@@ -4,11 +4,17 @@
  * the print dialog for PDF, recovery and recent files in localStorage, and the demo
  * project bundled into the page.
  */
-import type { DocumentState, ExportRequest, MenuCommand, OpenResult, RodwaveBridge, SaveRequest, SaveResult } from './contract'
+import type { DocumentState, ExportRequest, ExportResult, MenuCommand, OpenResult, RecoveredWork, RodwaveBridge, SaveRequest, SaveResult } from './contract'
+import { decodeProjectBytes, MAX_PROJECT_BYTES } from '../../core/model/project-bytes'
 import demoDocument from '../../examples/condensate-pump-hanger.rodwave.json'
 
 export const DEMO_NAME = 'condensate-pump-hanger.rodwave.json'
-const RECOVERY_KEY = 'rodwave.recovery'
+/** Each page load keeps its recovery copy under its own key, so an earlier load's copy waits for the user's answer. */
+const RECOVERY_PREFIX = 'rodwave.recovery.'
+/** The single recovery key of Rodwave 0.1, offered like any earlier copy. */
+const LEGACY_RECOVERY_KEY = 'rodwave.recovery'
+/** When each copy was written (ISO 8601), beside it. */
+const RECOVERY_TIME_PREFIX = 'rodwave.recovery-at.'
 const RECENT_KEY = 'rodwave.recent'
 const RECENT_LIMIT = 8
 /** Recent files keep their text in localStorage; larger ones are listed only while the page lives. */
@@ -34,6 +40,26 @@ export interface BrowserBridgeOptions {
 export function createBrowserBridge(options: BrowserBridgeOptions = {}): RodwaveBridge {
   const storage = options.storage ?? window.localStorage
   const menuListeners = new Set<(command: MenuCommand) => void>()
+  let session = newSessionId()
+  /** Earlier copies offered to this page, by id → storage key: only these may be settled. */
+  const offered = new Map<string, string>()
+
+  const earlierCopies = (): RecoveredWork[] => {
+    const copies: RecoveredWork[] = []
+    for (let index = 0; index < storage.length; index++) {
+      const key = storage.key(index)
+      if (key === null) continue
+      if (key === LEGACY_RECOVERY_KEY) {
+        const text = storage.getItem(key)
+        if (text !== null) copies.push({ id: 'legacy', text, savedAt: null })
+      } else if (key.startsWith(RECOVERY_PREFIX) && key !== RECOVERY_PREFIX + session) {
+        const id = key.slice(RECOVERY_PREFIX.length)
+        const text = storage.getItem(key)
+        if (text !== null) copies.push({ id, text, savedAt: storage.getItem(RECOVERY_TIME_PREFIX + id) })
+      }
+    }
+    return copies.sort((a, b) => (b.savedAt ?? '').localeCompare(a.savedAt ?? ''))
+  }
 
   const readRecent = (): RecentEntry[] => {
     try {
@@ -58,10 +84,18 @@ export function createBrowserBridge(options: BrowserBridgeOptions = {}): Rodwave
     async openProject(): Promise<OpenResult> {
       const file = await pickFile('.json,.rodwave.json,application/json')
       if (!file) return { kind: 'cancelled' }
+      // The size first: a file too large to be a project is never read into the page.
+      if (file.size > MAX_PROJECT_BYTES) {
+        return { kind: 'error', message: `Could not open "${file.name}": it is ${megabytes(file.size)}, and Rodwave opens project files up to ${megabytes(MAX_PROJECT_BYTES)}.` }
+      }
       try {
-        const text = await file.text()
-        remember(file.name, text)
-        return { kind: 'opened', path: file.name, name: file.name, text }
+        // The bytes go to the solver worker, which decodes, parses and validates them off the page's thread.
+        const bytes = new Uint8Array(await file.arrayBuffer())
+        if (bytes.byteLength <= RECENT_TEXT_LIMIT) {
+          const decoded = decodeProjectBytes(bytes)
+          if (decoded.ok) remember(file.name, decoded.text)
+        }
+        return { kind: 'opened', path: file.name, name: file.name, bytes }
       } catch (error) {
         return { kind: 'error', message: `Could not read ${file.name}: ${error instanceof Error ? error.message : String(error)}` }
       }
@@ -77,7 +111,7 @@ export function createBrowserBridge(options: BrowserBridgeOptions = {}): Rodwave
       remember(name, request.text)
       return { kind: 'saved', path: name, name }
     },
-    async exportFile(request: ExportRequest): Promise<SaveResult> {
+    async exportFile(request: ExportRequest): Promise<ExportResult> {
       if (request.kind === 'pdf') return printReport(request)
       const name = ensureExtension(request.suggestedName, `.${request.kind}`)
       download(name, request.content, MIME[request.kind])
@@ -92,14 +126,30 @@ export function createBrowserBridge(options: BrowserBridgeOptions = {}): Rodwave
     async setDocumentState(state: DocumentState): Promise<void> {
       document.title = `${state.dirty ? '• ' : ''}${state.title || 'Untitled project'} — Rodwave`
     },
-    async writeRecovery(text: string): Promise<void> {
-      storage.setItem(RECOVERY_KEY, text)
+    async saveRefused(): Promise<void> {
+      // No close waits on a save in a browser.
     },
-    async readRecovery(): Promise<string | null> {
-      return storage.getItem(RECOVERY_KEY)
+    async writeRecovery(text: string): Promise<void> {
+      storage.setItem(RECOVERY_PREFIX + session, text)
+      storage.setItem(RECOVERY_TIME_PREFIX + session, new Date().toISOString())
+    },
+    async readRecovery(): Promise<RecoveredWork[]> {
+      session = newSessionId()
+      offered.clear()
+      const copies = earlierCopies()
+      for (const copy of copies) offered.set(copy.id, copy.id === 'legacy' ? LEGACY_RECOVERY_KEY : RECOVERY_PREFIX + copy.id)
+      return copies
     },
     async clearRecovery(): Promise<void> {
-      storage.removeItem(RECOVERY_KEY)
+      storage.removeItem(RECOVERY_PREFIX + session)
+      storage.removeItem(RECOVERY_TIME_PREFIX + session)
+    },
+    async settleRecovery(id: string): Promise<void> {
+      const key = offered.get(id)
+      if (key === undefined) return
+      storage.removeItem(key)
+      storage.removeItem(RECOVERY_TIME_PREFIX + id)
+      offered.delete(id)
     },
     onMenuCommand(listener: (command: MenuCommand) => void): () => void {
       // A browser has no application menu: the page's own buttons and keys are the menu.
@@ -107,6 +157,16 @@ export function createBrowserBridge(options: BrowserBridgeOptions = {}): Rodwave
       return () => menuListeners.delete(listener)
     },
   }
+}
+
+function megabytes(bytes: number): string {
+  return `${(bytes / (1024 * 1024)).toFixed(1)} MB`
+}
+
+function newSessionId(): string {
+  const random = new Uint8Array(6)
+  crypto.getRandomValues(random)
+  return `${Date.now().toString(36)}-${Array.from(random, (byte) => byte.toString(16).padStart(2, '0')).join('')}`
 }
 
 function ensureExtension(name: string, extension: string): string {
@@ -144,8 +204,8 @@ function download(name: string, content: string, type: string): void {
   setTimeout(() => URL.revokeObjectURL(url), 60_000)
 }
 
-/** PDF in a browser: the report opens in a new tab and the browser's print dialog saves it. */
-function printReport(request: ExportRequest): SaveResult {
+/** PDF in a browser: the report opens in a new tab with the browser's print dialog, where the user saves it as PDF. */
+function printReport(request: ExportRequest): ExportResult {
   const url = URL.createObjectURL(new Blob([request.content], { type: 'text/html;charset=utf-8' }))
   const view = window.open(url, '_blank')
   if (!view) {
@@ -154,5 +214,5 @@ function printReport(request: ExportRequest): SaveResult {
   }
   view.addEventListener('load', () => view.print(), { once: true })
   setTimeout(() => URL.revokeObjectURL(url), 600_000)
-  return { kind: 'saved', path: request.suggestedName, name: request.suggestedName }
+  return { kind: 'print-dialog', name: request.suggestedName }
 }

@@ -9,7 +9,18 @@
 import type { ConvergenceStudy, Project, TuneRequest, TuneResult } from '../../core/index'
 import { tuneParameter } from '../../core/analysis/tuner'
 import type { SolverRequest, SolverResponse, SolverResults } from './solver-protocol'
-import { compareMassesTask, convergenceTask, reportTask, solveTask, type MassComparison, type ReportTaskInput, type SolvedModel } from './solver-tasks'
+import type { ProjectReadResult } from '../../core/model/project-schema'
+import {
+  compareMassesTask,
+  convergenceTask,
+  readProjectTask,
+  reportTask,
+  solveTask,
+  type MassComparison,
+  type ProjectSource,
+  type ReportTaskInput,
+  type SolvedModel,
+} from './solver-tasks'
 import {
   responseTask,
   scatterShareTask,
@@ -70,6 +81,8 @@ export interface SolverClient {
   tune(project: Project, request: TuneRequest): CancellableJob<TuneResult>
   scatter(project: Project, request: ScatterRequest, onProgress: (fraction: number) => void): CancellableJob<ScatterOutcome>
   response(project: Project, request: ResponseTaskRequest): Promise<ResponseResult>
+  /** Decodes, parses and validates a project file off the interface thread. */
+  readProject(source: ProjectSource): Promise<ProjectReadResult>
   dispose(): void
 }
 
@@ -107,13 +120,15 @@ class WorkerChannel {
     return this.pending.size > 0
   }
 
-  run<K extends SolverRequest['kind']>(payload: Payload<K>, onProgress?: (fraction: number) => void): Promise<SolverResults[K]> {
+  /** `transfer`: the payload is already plain data; these buffers move to the worker instead of being copied. */
+  run<K extends SolverRequest['kind']>(payload: Payload<K>, onProgress?: (fraction: number) => void, transfer?: Transferable[]): Promise<SolverResults[K]> {
     const worker = this.ensure()
     const id = this.nextId++
     return new Promise<SolverResults[K]>((resolve, reject) => {
       this.pending.set(id, { resolve: resolve as (r: unknown) => void, reject, onProgress })
       // Projects come from the editor's store: send a plain copy, never a reactive proxy.
-      worker.postMessage({ ...plainCopy(payload), id })
+      if (transfer) worker.postMessage({ ...payload, id }, transfer)
+      else worker.postMessage({ ...plainCopy(payload), id })
     })
   }
 
@@ -237,6 +252,10 @@ export function createWorkerSolverClient(createWorker: () => Worker): SolverClie
     response(project, request) {
       return side.run<'response'>({ kind: 'response', project, request })
     },
+    readProject(source) {
+      // Sent as it is (no copy through JSON on this thread); a file's bytes move to the worker.
+      return side.run<'read-project'>({ kind: 'read-project', source }, undefined, 'bytes' in source ? [source.bytes.buffer as ArrayBuffer] : [])
+    },
     dispose() {
       solves.stop(new SolverCancelled())
       side.stop(new SolverCancelled())
@@ -294,6 +313,7 @@ export function createInlineSolverClient(): SolverClient {
       }
     },
     response: (project, request) => later(() => responseTask(plainCopy(project), request)),
+    readProject: (source) => later(() => readProjectTask(source)),
     dispose() {},
   }
 }

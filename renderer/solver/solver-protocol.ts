@@ -1,6 +1,7 @@
 /** Messages between the window and the solver worker. */
 import type { ConvergenceStudy, Project, TuneRequest, TuneResult } from '../../core/index'
-import type { MassComparison, ReportTaskInput, SolvedModel } from './solver-tasks'
+import type { ProjectReadResult } from '../../core/model/project-schema'
+import type { MassComparison, ProjectSource, ReportTaskInput, SolvedModel } from './solver-tasks'
 import type { ResponseResult, ResponseTaskRequest, ScatterShare, ScatterShareRun, SensitivityTable } from './design-tasks'
 
 export type SolverRequest =
@@ -12,6 +13,7 @@ export type SolverRequest =
   | { readonly id: number; readonly kind: 'tune'; readonly project: Project; readonly request: TuneRequest }
   | { readonly id: number; readonly kind: 'scatter-share'; readonly project: Project; readonly run: ScatterShareRun }
   | { readonly id: number; readonly kind: 'response'; readonly project: Project; readonly request: ResponseTaskRequest }
+  | { readonly id: number; readonly kind: 'read-project'; readonly source: ProjectSource }
 
 export interface SolverResults {
   solve: SolvedModel
@@ -22,6 +24,7 @@ export interface SolverResults {
   tune: TuneResult
   'scatter-share': ScatterShare
   response: ResponseResult
+  'read-project': ProjectReadResult
 }
 
 export type SolverResponse =

@@ -19,6 +19,8 @@ import { modelWarnings, type ModelWarning } from '../../core/analysis/model-chec
 import { modeShapeChartData, type ModeShapeChartData } from '../../core/charts/mode-shape-chart'
 import { modalReportHtml } from '../../core/report/modal-report'
 import type { FamilyReference } from '../../core/exact/family-reference'
+import { decodeProjectBytes } from '../../core/model/project-bytes'
+import { readProjectText, type ProjectReadResult } from '../../core/model/project-schema'
 
 export interface SolvedModel {
   /** The project these results belong to, as solved. */
@@ -108,4 +110,19 @@ export function reportTask(input: ReportTaskInput): string {
     generatedAt: new Date(input.generatedAt),
     appVersion: input.appVersion,
   })
+}
+
+/** A project file as the window has it: its bytes (a browser upload) or its text (the desktop app reads and decodes it). */
+export type ProjectSource = { readonly bytes: Uint8Array } | { readonly text: string }
+
+/**
+ * Reads a project file off the interface thread: decodes its bytes by core's one rule
+ * (UTF-8, byte-order mark allowed), parses and validates it. A file that cannot be decoded
+ * is refused like any other problem of the whole file.
+ */
+export function readProjectTask(source: ProjectSource): ProjectReadResult {
+  if ('text' in source) return readProjectText(source.text)
+  const decoded = decodeProjectBytes(source.bytes)
+  if (!decoded.ok) return { ok: false, issues: [{ path: '(file)', message: decoded.message }] }
+  return readProjectText(decoded.text)
 }

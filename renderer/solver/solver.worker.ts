@@ -1,6 +1,6 @@
 /** The solver worker: runs the window's heavy work off the interface thread. */
 import type { SolverRequest, SolverResponse } from './solver-protocol'
-import { compareMassesTask, convergenceTask, reportTask, solveTask } from './solver-tasks'
+import { compareMassesTask, convergenceTask, readProjectTask, reportTask, solveTask } from './solver-tasks'
 import { tuneParameter } from '../../core/analysis/tuner'
 import { responseTask, scatterShareTask, sensitivityTask } from './design-tasks'
 
@@ -43,6 +43,9 @@ scope.addEventListener('message', (event) => {
       }
       case 'response':
         done(responseTask(request.project, request.request))
+        break
+      case 'read-project':
+        done(readProjectTask(request.source))
         break
     }
   } catch (error) {

@@ -5,10 +5,10 @@
  * stays exactly as it was.
  */
 import { defineStore } from 'pinia'
-import { ref, watch } from 'vue'
-import type { ExportKind, MenuCommand, OpenResult } from '../bridge/contract'
+import { computed, ref, watch } from 'vue'
+import type { ExportKind, ExportResult, MenuCommand, OpenResult, RecoveredWork } from '../bridge/contract'
 import { newProject } from '../../core/model/project-file'
-import { readProjectText, type ProjectIssue } from '../../core/model/project-schema'
+import { readProjectText, type ProjectIssue, type ProjectReadResult } from '../../core/model/project-schema'
 import type { Project } from '../../core/model/project'
 import { version as appVersion } from '../../package.json'
 import { useBridge } from '../bridge/bridge'
@@ -47,7 +47,9 @@ export const useFileStore = defineStore('file', () => {
   const recent = ref<string[]>([])
   const refused = ref<RefusedFile | null>(null)
   const notice = ref<Notice | null>(null)
-  const recoveryText = ref<string | null>(null)
+  /** Copies of unsaved work that earlier sessions left, newest first; the first is on offer. */
+  const recoveries = ref<RecoveredWork[]>([])
+  const recoveryText = computed(() => recoveries.value[0]?.text ?? null)
   const confirmation = ref<Confirmation | null>(null)
   const busy = ref<string | null>(null)
   let lastRecoveryWritten: string | null = null
@@ -105,7 +107,17 @@ export const useFileStore = defineStore('file', () => {
       tell('error', result.message)
       return
     }
-    const read = readProjectText(result.text)
+    // Decoding, parsing and validating a file (up to 20 MB) run in the solver worker, never on this thread.
+    let read: ProjectReadResult
+    busy.value = `Reading ${result.name}…`
+    try {
+      read = await useSolver().readProject('bytes' in result ? { bytes: result.bytes } : { text: result.text })
+    } catch (error) {
+      tell('error', `Could not read "${result.name}": ${error instanceof Error ? error.message : String(error)}`)
+      return
+    } finally {
+      busy.value = null
+    }
     if (!read.ok) {
       refused.value = { name: result.name, issues: read.issues }
       return
@@ -134,9 +146,9 @@ export const useFileStore = defineStore('file', () => {
       tell('error', `The demo project could not be loaded: ${error instanceof Error ? error.message : String(error)}`)
     }
     try {
-      recoveryText.value = await bridge.readRecovery()
+      recoveries.value = await bridge.readRecovery()
     } catch {
-      recoveryText.value = null
+      recoveries.value = []
     }
     await refreshRecent()
     ready.value = true
@@ -148,8 +160,13 @@ export const useFileStore = defineStore('file', () => {
     autosaveTimer = setInterval(() => void writeRecovery(), AUTOSAVE_MS)
   }
 
+  /** The autosave: this session's copy follows the unsaved draft, and goes once nothing is unsaved. */
   async function writeRecovery(): Promise<void> {
-    if (!project.dirty || project.draftText === lastRecoveryWritten) return
+    if (!project.dirty) {
+      if (lastRecoveryWritten !== null) await clearRecovery()
+      return
+    }
+    if (project.draftText === lastRecoveryWritten) return
     const text = project.draftText
     try {
       await useBridge().writeRecovery(text)
@@ -168,16 +185,13 @@ export const useFileStore = defineStore('file', () => {
     }
   }
 
-  /** Brings back the unsaved work of an earlier session, as an unsaved document. */
-  async function restoreRecovery(): Promise<void> {
-    const text = recoveryText.value
-    recoveryText.value = null
-    if (text === null) return
+  /** Shows recovered text as an unsaved document; false (and the problems shown) when it cannot be read. */
+  function showRecovered(text: string): boolean {
     const read = readProjectText(text)
     if (read.ok) {
       show(read.project, { path: null, name: UNTITLED, dirty: true })
       tell('info', 'Unsaved work restored. Save it to keep it.')
-      return
+      return true
     }
     // Work saved while it still had problems comes back as it was, problems named in the editor.
     try {
@@ -186,17 +200,46 @@ export const useFileStore = defineStore('file', () => {
         show(draft, { path: null, name: UNTITLED, dirty: true })
         view.activeView = 'part'
         tell('info', 'Unsaved work restored; it still has problems to fix.')
-        return
+        return true
       }
     } catch {
       // Not JSON at all: fall through to the refusal.
     }
     refused.value = { name: 'the recovery file', issues: read.issues }
+    return false
   }
 
+  /**
+   * Brings back the unsaved work of an earlier session, as an unsaved document. The earlier
+   * copy is removed only once the restored work is this session's recovery copy, so the work
+   * is on disk at every moment. A copy that cannot be read stays on offer (to be discarded).
+   */
+  async function restoreRecovery(): Promise<void> {
+    const copy = recoveries.value[0]
+    if (copy === undefined) return
+    if (!(await mayDiscard('Restore the earlier work'))) return
+    if (!showRecovered(copy.text)) return
+    recoveries.value = recoveries.value.filter((c) => c.id !== copy.id)
+    const text = project.draftText
+    try {
+      await useBridge().writeRecovery(text)
+      lastRecoveryWritten = text
+      await useBridge().settleRecovery(copy.id)
+    } catch {
+      // The earlier copy stays on disk and is offered again at the next start.
+    }
+  }
+
+  /** The user does not want the earlier session's work: its copy goes (this session's stays). */
   async function discardRecovery(): Promise<void> {
-    recoveryText.value = null
-    await clearRecovery()
+    const copy = recoveries.value[0]
+    if (copy === undefined) return
+    recoveries.value = recoveries.value.filter((c) => c.id !== copy.id)
+    try {
+      await useBridge().settleRecovery(copy.id)
+    } catch {
+      // It is offered again at the next start and can be discarded then.
+    }
   }
 
   async function newDocument(): Promise<void> {
@@ -220,8 +263,14 @@ export const useFileStore = defineStore('file', () => {
     if (text === null) {
       tell('error', `The part has ${project.issues.length} problem${project.issues.length === 1 ? '' : 's'}; fix ${project.issues.length === 1 ? 'it' : 'them'} before saving (unsaved work is kept for recovery meanwhile).`)
       view.activeView = 'part'
+      // A close waiting on this save (the desktop's "Save" in its close prompt) ends now, not after a timeout.
+      void useBridge()
+        .saveRefused()
+        .catch(() => undefined)
       return false
     }
+    // What is written is the draft as it is now; edits made while the file is being written stay unsaved.
+    const writtenDraft = project.draftText
     const path = asNew ? null : project.filePath
     const result = await useBridge().saveProject({ path, suggestedName: suggestedName('.rodwave.json'), text })
     if (result.kind === 'cancelled') return false
@@ -229,10 +278,11 @@ export const useFileStore = defineStore('file', () => {
       tell('error', result.message)
       return false
     }
-    project.markSaved(result.path, result.name)
-    await clearRecovery()
+    project.markSaved(result.path, result.name, writtenDraft)
+    // The recovery copy goes only when nothing is left unsaved; otherwise the autosave keeps it current.
+    if (!project.dirty) await clearRecovery()
     await refreshRecent()
-    tell('info', `Saved ${result.name}`)
+    tell('info', project.dirty ? `Saved ${result.name}; changes made while it was being saved are not saved yet` : `Saved ${result.name}`)
     return true
   }
 
@@ -250,7 +300,13 @@ export const useFileStore = defineStore('file', () => {
     }
     if (results.stale) tell('info', 'The part has changed since these results; exporting the last solved model.')
     const result = await useBridge().exportFile({ kind: 'csv', suggestedName: suggestedName('-modal-summary.csv'), content: solved.summaryCsv })
+    reportExport(result)
+  }
+
+  /** Says what an export did: a file written, the print dialog opened (a browser's PDF), or why not. */
+  function reportExport(result: ExportResult): void {
     if (result.kind === 'saved') tell('info', `Exported ${result.name}`)
+    else if (result.kind === 'print-dialog') tell('info', 'The report opened in a new tab with the print dialog; no file was written yet. To keep a PDF, choose “Save as PDF” as the printer there.')
     else if (result.kind === 'error') tell('error', result.message)
   }
 
@@ -270,8 +326,7 @@ export const useFileStore = defineStore('file', () => {
         appVersion,
       })
       const result = await useBridge().exportFile({ kind, suggestedName: suggestedName(kind === 'pdf' ? '-report.pdf' : '-report.html'), content: html })
-      if (result.kind === 'saved') tell('info', `Exported ${result.name}`)
-      else if (result.kind === 'error') tell('error', result.message)
+      reportExport(result)
     } catch (error) {
       tell('error', `The report could not be written: ${error instanceof Error ? error.message : String(error)}`)
     } finally {

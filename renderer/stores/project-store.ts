@@ -110,10 +110,11 @@ export const useProjectStore = defineStore('project', () => {
     savedText.value = source.dirty ? '' : draftText.value
   }
 
-  function markSaved(path: string, name: string): void {
+  /** The document is now the file at `path`, holding `savedDraft` (the draft as it was written; edits since stay unsaved). */
+  function markSaved(path: string, name: string, savedDraft: string = draftText.value): void {
     filePath.value = path
     fileName.value = name
-    savedText.value = draftText.value
+    savedText.value = savedDraft
   }
 
   /** The file text of the draft, or null while it has problems. */

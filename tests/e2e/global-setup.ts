@@ -2,7 +2,7 @@
 import { existsSync } from 'node:fs'
 import { join } from 'node:path'
 import type { TestProject } from 'vitest/node'
-import { startStaticServer } from './static-server'
+import { startStaticServer } from '../../build/static-server'
 
 declare module 'vitest' {
   export interface ProvidedContext {

@@ -6,7 +6,7 @@ vi.mock('electron', () => ({}))
 
 function setup(answer: UnsavedAnswer) {
   const deps = {
-    askAboutUnsaved: vi.fn(async () => answer),
+    askAboutUnsaved: vi.fn(async (_title: string): Promise<UnsavedAnswer> => answer),
     requestSave: vi.fn(),
     closeWindow: vi.fn(),
     showTitle: vi.fn(),
@@ -142,6 +142,45 @@ describe('closing when the window does not answer', () => {
     guard.saveFinished({ kind: 'saved', path: '/p/t.rodwave.json', name: 't.rodwave.json' })
     guard.documentChanged({ dirty: false, title: 'Tie rod' })
     expect(deps.closeWindow).not.toHaveBeenCalled()
+  })
+
+  it('a Save the window refuses (the part has problems) ends the close at once: the next close click asks again', async () => {
+    const { guard, deps, close } = setup('save')
+    guard.documentChanged({ dirty: true, title: 'Tie rod' })
+    close()
+    await vi.advanceTimersByTimeAsync(0)
+    expect(deps.requestSave).toHaveBeenCalledOnce()
+    guard.saveRefused()
+    expect(deps.closeAbandoned).toHaveBeenCalledOnce()
+    // No waiting out the handshake deadline: a close click a moment later is answered.
+    await vi.advanceTimersByTimeAsync(1000)
+    expect(close()).toHaveBeenCalledOnce()
+    await vi.advanceTimersByTimeAsync(0)
+    expect(deps.askAboutUnsaved).toHaveBeenCalledTimes(2)
+    // The first close's deadline passing later changes nothing.
+    await vi.advanceTimersByTimeAsync(SAVE_HANDSHAKE_TIMEOUT_MS)
+    expect(deps.closeWindow).not.toHaveBeenCalled()
+  })
+
+  it('a close click while the window has not started the requested save asks again instead of being dropped', async () => {
+    const { guard, deps, close } = setup('discard')
+    guard.documentChanged({ dirty: true, title: 'Tie rod' })
+    deps.askAboutUnsaved.mockResolvedValueOnce('save')
+    close()
+    await vi.advanceTimersByTimeAsync(0)
+    expect(deps.requestSave).toHaveBeenCalledOnce()
+    await vi.advanceTimersByTimeAsync(2000)
+    expect(close()).toHaveBeenCalledOnce()
+    await vi.advanceTimersByTimeAsync(0)
+    expect(deps.askAboutUnsaved).toHaveBeenCalledTimes(2)
+    expect(deps.closeWindow).toHaveBeenCalledOnce()
+  })
+
+  it('a refusal that comes without a close in progress changes nothing', async () => {
+    const { guard, deps } = setup('save')
+    guard.documentChanged({ dirty: true, title: 'Tie rod' })
+    guard.saveRefused()
+    expect(deps.closeAbandoned).not.toHaveBeenCalled()
   })
 
   it('waits for the user in the save dialog as long as it takes', async () => {

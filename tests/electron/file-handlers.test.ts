@@ -10,6 +10,7 @@ import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest'
 import type { OpenDialogOptions, SaveDialogOptions } from 'electron'
 import { createFileHandlers, readProjectText, safeFileName, type FileDialogs } from '../../electron/file-handlers'
 import { MAX_PROJECT_BYTES } from '../../electron/ipc-validation'
+import { decodeProjectBytes } from '../../core/model/project-bytes'
 import { createRecentFiles, recentFilesInFile } from '../../electron/recent-files'
 
 vi.mock('electron', () => ({}))
@@ -65,7 +66,20 @@ describe('open', () => {
     const path = join(folder, 'binary.json')
     await writeFile(path, Buffer.from([0x7b, 0xff, 0xfe, 0x00, 0x7d]))
     const result = await readProjectText(path)
-    expect(result).toEqual({ kind: 'error', message: 'Could not open "binary.json": it is not UTF-8 text, so it is not a Rodwave project file.' })
+    expect(result).toEqual({
+      kind: 'error',
+      message: 'Could not open "binary.json": it is not UTF-8 text (byte 2, line 1 does not start a valid UTF-8 character); save it as UTF-8 and open it again.',
+    })
+  })
+
+  it('applies core’s one rule for a project file’s bytes (the same as the command line and the browser)', async () => {
+    const path = join(folder, 'latin1.rodwave.json')
+    const bytes = Buffer.from('{"title":"caf?"}', 'latin1')
+    bytes[bytes.indexOf(0x3f)] = 0xe9
+    await writeFile(path, bytes)
+    const expected = decodeProjectBytes(bytes)
+    if (expected.ok) throw new Error('fixture: Latin-1 é must not be UTF-8')
+    expect(await readProjectText(path)).toEqual({ kind: 'error', message: `Could not open "latin1.rodwave.json": it ${expected.message}.` })
   })
 
   it('removes a UTF-8 byte-order mark', async () => {

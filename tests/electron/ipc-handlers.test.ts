@@ -5,7 +5,7 @@
 import { beforeEach, describe, expect, it, vi } from 'vitest'
 import { CHANNELS } from '../../electron/ipc-contract'
 import { INVOKE_CHANNELS, registerIpcHandlers, type ShellServices } from '../../electron/ipc-handlers'
-import { MAX_PROJECT_BYTES } from '../../electron/ipc-validation'
+import { MAX_PROJECT_BYTES, MAX_TITLE_LENGTH } from '../../electron/ipc-validation'
 import type { IpcSenderInfo } from '../../electron/sender-check'
 
 vi.mock('electron', () => ({}))
@@ -29,8 +29,13 @@ function setup() {
       demoProject: vi.fn(async () => ({ name: 'demo.rodwave.json', text: '{}' })),
     },
     recentFiles: { list: vi.fn(async () => ['/p/x.rodwave.json']), add: vi.fn(), has: vi.fn(), clear: vi.fn() },
-    recovery: { write: vi.fn(async () => undefined), read: vi.fn(async () => 'autosaved'), clear: vi.fn(async () => undefined) },
-    closeGuard: { documentChanged: vi.fn(), saveStarted: vi.fn(), saveFinished: vi.fn() },
+    recovery: {
+      write: vi.fn(async () => undefined),
+      startSession: vi.fn(async () => [{ id: 'mhx1-0123456789ab', text: 'autosaved', savedAt: null }]),
+      clear: vi.fn(async () => undefined),
+      settle: vi.fn(async () => undefined),
+    },
+    closeGuard: { documentChanged: vi.fn(), saveStarted: vi.fn(), saveFinished: vi.fn(), saveRefused: vi.fn() },
   } satisfies ShellServices
   const log = vi.fn()
   const registered = registerIpcHandlers({ ipcMain, trustedWindow: () => window, services, log })
@@ -56,6 +61,8 @@ const VALID_ARGUMENTS: Record<string, unknown[]> = {
   [CHANNELS.writeRecovery]: ['{}'],
   [CHANNELS.readRecovery]: [],
   [CHANNELS.clearRecovery]: [],
+  [CHANNELS.settleRecovery]: ['mhx1-0123456789ab'],
+  [CHANNELS.saveRefused]: [],
 }
 
 const RESULT_CHANNELS = new Set<string>([CHANNELS.openProject, CHANNELS.openRecent, CHANNELS.saveProject, CHANNELS.exportFile])
@@ -96,11 +103,30 @@ describe('registration', () => {
   it('passes a trusted, valid call through to its service', async () => {
     const { call, trusted, services } = setup()
     expect(await call(CHANNELS.recentFiles, trusted)).toEqual(['/p/x.rodwave.json'])
-    expect(await call(CHANNELS.readRecovery, trusted)).toBe('autosaved')
+    expect(await call(CHANNELS.readRecovery, trusted)).toEqual([{ id: 'mhx1-0123456789ab', text: 'autosaved', savedAt: null }])
+    await call(CHANNELS.settleRecovery, trusted, 'mhx1-0123456789ab')
+    expect(services.recovery.settle).toHaveBeenCalledWith('mhx1-0123456789ab')
     await call(CHANNELS.openRecent, trusted, '/home/eng/hanger.rodwave.json')
     expect(services.files.openRecent).toHaveBeenCalledWith('/home/eng/hanger.rodwave.json')
     await call(CHANNELS.setDocumentState, trusted, { dirty: true, title: 'Hanger' })
     expect(services.closeGuard.documentChanged).toHaveBeenCalledWith({ dirty: true, title: 'Hanger' })
+  })
+
+  it('tells the close guard when the window refuses a save', async () => {
+    const { call, trusted, services } = setup()
+    await call(CHANNELS.saveRefused, trusted)
+    expect(services.closeGuard.saveRefused).toHaveBeenCalledOnce()
+  })
+
+  it('shortens a title too long for the frame instead of refusing the state, so the unsaved mark always arrives', async () => {
+    const { call, trusted, services } = setup()
+    const title = 'Hanger rod '.repeat(60)
+    await call(CHANNELS.setDocumentState, trusted, { dirty: true, title })
+    expect(services.closeGuard.documentChanged).toHaveBeenCalledOnce()
+    const state = services.closeGuard.documentChanged.mock.calls[0]![0] as { dirty: boolean; title: string }
+    expect(state.dirty).toBe(true)
+    expect(state.title).toHaveLength(MAX_TITLE_LENGTH)
+    expect(state.title).toBe(`${title.slice(0, MAX_TITLE_LENGTH - 1)}…`)
   })
 
   it('tells the close guard when a save starts and how it ended', async () => {
@@ -160,6 +186,7 @@ describe('bad arguments', () => {
     ['document state with a string flag', CHANNELS.setDocumentState, [{ dirty: 'yes', title: 'a' }], /dirty: /],
     ['recovery text that is not a string', CHANNELS.writeRecovery, [{ text: '{}' }], /request: /],
     ['recovery text over 20 MB', CHANNELS.writeRecovery, [oversized], /must be at most 20\.0 MB/],
+    ['a recovery id that is a path', CHANNELS.settleRecovery, ['../../.bashrc'], /request: must name a recovery copy/],
     ['an argument to a request that takes none', CHANNELS.recentFiles, ['/etc'], /this request takes no argument/],
     ['two arguments', CHANNELS.openRecent, ['/a.json', '/b.json'], /at most one argument, got 2/],
   ]
@@ -176,7 +203,7 @@ describe('bad arguments', () => {
 describe('failures inside a service', () => {
   it('answer with a short message, never a stack trace', async () => {
     const context = setup()
-    context.services.recovery.read.mockRejectedValueOnce(Object.assign(new Error('EACCES: permission denied, open /home/eng/.config/Rodwave/unsaved'), { code: 'EACCES' }))
+    context.services.recovery.startSession.mockRejectedValueOnce(Object.assign(new Error('EACCES: permission denied, open /home/eng/.config/Rodwave/unsaved'), { code: 'EACCES' }))
     const message = await refusalMessage(CHANNELS.readRecovery, context.call(CHANNELS.readRecovery, context.trusted))
     expect(message).toBe('Read recovery copy failed: EACCES: permission denied, open /home/eng/.config/Rodwave/unsaved')
     expect(message).not.toMatch(/\n\s+at /)

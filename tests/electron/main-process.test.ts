@@ -229,3 +229,50 @@ describe('document state and closing', () => {
     log.mockRestore()
   })
 })
+
+describe('About Rodwave and the third-party notices', () => {
+  type MenuItem = { label?: string; submenu?: MenuItem[]; click?: () => void }
+  const aboutItem = () => {
+    const template = Menu.buildFromTemplate.mock.calls.at(-1)![0] as MenuItem[]
+    return template.flatMap((menu) => menu.submenu ?? []).find((item) => item.label === 'About Rodwave')!
+  }
+
+  it('offers the notices from the About box and shows them in a window without script, closed with the main window', async () => {
+    dialog.showMessageBox.mockResolvedValueOnce({ response: 1 })
+    const before = mock.windows.length
+    aboutItem().click!()
+    await vi.waitFor(() => expect(mock.windows).toHaveLength(before + 1))
+    const options = dialog.showMessageBox.mock.calls.at(-1)!.at(-1) as unknown as { buttons: string[]; detail: string }
+    expect(options.buttons).toEqual(['Close', 'Third-party notices'])
+    expect(options.detail).toContain('Verify them on the real part')
+    expect(options.detail).toContain('see Third-party notices')
+    const notices = mock.windows.at(-1)!
+    expect(notices.options.parent).toBe(window())
+    expect(notices.options.webPreferences).toMatchObject({ javascript: false, sandbox: true, contextIsolation: true, nodeIntegration: false })
+    expect((notices.options.webPreferences as { preload?: string }).preload).toBeUndefined()
+    expect(notices.loadURL).toHaveBeenCalledExactlyOnceWith('rodwave-app://bundle/third-party-notices.txt')
+
+    // A second click brings the same window forward.
+    dialog.showMessageBox.mockResolvedValueOnce({ response: 1 })
+    aboutItem().click!()
+    await vi.waitFor(() => expect(notices.focus).toHaveBeenCalled())
+    expect(mock.windows).toHaveLength(before + 1)
+  })
+
+  it('serves the notices file the build writes beside the window, as plain text', async () => {
+    await writeFile(join(appRoot, 'dist', 'renderer', 'third-party-notices.txt'), 'zod 4.6.7 (MIT)\n')
+    const [, handler] = protocol.handle.mock.calls[0]! as unknown as [string, (request: { url: string; method: string }) => Promise<Response>]
+    const response = await handler({ url: 'rodwave-app://bundle/third-party-notices.txt', method: 'GET' })
+    expect(response.status).toBe(200)
+    expect(response.headers.get('content-type')).toBe('text/plain; charset=utf-8')
+    expect(await response.text()).toBe('zod 4.6.7 (MIT)\n')
+  })
+
+  it('closes the dialog without opening anything on Close', async () => {
+    dialog.showMessageBox.mockResolvedValueOnce({ response: 0 })
+    const before = mock.windows.length
+    aboutItem().click!()
+    await new Promise((done) => setImmediate(done))
+    expect(mock.windows).toHaveLength(before)
+  })
+})

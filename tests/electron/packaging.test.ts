@@ -2,11 +2,13 @@
  * Packaging configuration, checked by electron-builder's own loader and schema validator
  * (app-builder-lib, installed with electron-builder), plus the files it points at.
  */
+import { readFileSync } from 'node:fs'
 import { readFile, stat } from 'node:fs/promises'
 import { join } from 'node:path'
 import { fileURLToPath } from 'node:url'
 import { describe, expect, it, vi } from 'vitest'
 import { DEMO_PROJECT_FILE } from '../../electron/app-paths'
+import { NOTICES_FILE } from '../../build/third-party-notices'
 
 vi.mock('electron', () => ({}))
 
@@ -57,6 +59,17 @@ describe('electron-builder configuration', () => {
     expect(config.asar).toBe(true)
   })
 
+  it('packs the third-party notices the build writes beside the window and the desktop shell', async () => {
+    const config = await loadConfig()
+    const patterns = (config.files as { filter?: string[] }[]).flatMap((set) => set.filter ?? [])
+    const { minimatch } = await import('minimatch')
+    for (const file of [`dist/renderer/${NOTICES_FILE}`, `dist/electron/${NOTICES_FILE}`]) {
+      const included = patterns.some((pattern) => !pattern.startsWith('!') && minimatch(file, pattern))
+      const excluded = patterns.some((pattern) => pattern.startsWith('!') && minimatch(file, pattern.slice(1)))
+      expect({ file, packed: included && !excluded }).toEqual({ file, packed: true })
+    }
+  })
+
   it('ships the demo project as an extra resource under examples/', async () => {
     const config = await loadConfig()
     const examples = (config.extraResources as FileSet[]).find((set) => set.from === 'examples')!
@@ -94,5 +107,52 @@ describe('electron-builder configuration', () => {
   it('keeps the icon’s source as an SVG', async () => {
     const svg = await readFile(join(root, 'assets', 'rodwave-icon.svg'), 'utf8')
     expect(svg).toMatch(/^<svg xmlns="http:\/\/www\.w3\.org\/2000\/svg"[^>]*viewBox="0 0 512 512"/)
+  })
+})
+
+describe('what the packages are made of', () => {
+  const pkg = JSON.parse(readFileSync(join(root, 'package.json'), 'utf8')) as {
+    name: string
+    homepage?: string
+    author?: { name?: string; email?: string }
+    desktopName?: string
+    dependencies?: Record<string, string>
+  }
+
+  it('passes the deb target’s own metadata check (homepage, author with an e-mail)', async () => {
+    const { default: FpmTarget } = await import('app-builder-lib/out/targets/FpmTarget.js')
+    const { AppInfo } = await import('app-builder-lib/out/appInfo.js')
+    // What FpmTarget reads of its packager, built from the real package.json.
+    const appInfo = { info: { metadata: pkg, repositoryInfo: Promise.resolve(null) }, notNullDevMetadata: pkg }
+    const packager = {
+      info: { metadata: pkg },
+      appInfo: { computePackageUrl: () => AppInfo.prototype.computePackageUrl.call(appInfo), linuxPackageName: 'rodwave' },
+    }
+    // A private method of electron-builder's deb/rpm target: the check `npm run dist` runs first.
+    const check = (FpmTarget.prototype as unknown as { computeFpmMetaInfoOptions(this: unknown): Promise<unknown> }).computeFpmMetaInfoOptions
+    const meta = await check.call({ packager, options: {} })
+    expect(meta).toMatchObject({ maintainer: 'Rodwave contributors <team@rodwave.dev>', url: 'https://rodwave.dev' })
+  })
+
+  it('names the desktop entry after desktopName, which is the app id Electron gives the window', async () => {
+    const config = await loadConfig()
+    const { LinuxTargetHelper } = await import('app-builder-lib/out/targets/LinuxTargetHelper.js')
+    const helper = { packager: { platformSpecificBuildOptions: config.linux, info: { metadata: pkg }, executableName: config.linux?.executableName } }
+    expect(pkg.desktopName).toBe('rodwave.desktop')
+    expect(LinuxTargetHelper.prototype.getDesktopFileName.call(helper)).toBe('rodwave')
+  })
+
+  it('copies no node_modules into the app archive: every runtime package is bundled into dist/', async () => {
+    const { getCollectorByPackageManager, PM } = await import('app-builder-lib/out/node-module-collector/index.js')
+    const { TmpDir } = await import('builder-util')
+    const temp = new TmpDir('rodwave-packaging-test')
+    try {
+      // The collector electron-builder itself uses to pick the production node_modules it copies (the traversal variant: no npm run).
+      const { nodeModules } = await getCollectorByPackageManager(PM.TRAVERSAL, root, temp).getNodeModules({ packageName: pkg.name })
+      expect(nodeModules.map((module) => module.name)).toEqual([])
+    } finally {
+      await temp.cleanup()
+    }
+    expect(pkg.dependencies ?? {}).toEqual({})
   })
 })

@@ -51,9 +51,11 @@ describe('preload', () => {
         'recentFiles',
         'demoProject',
         'setDocumentState',
+        'saveRefused',
         'writeRecovery',
         'readRecovery',
         'clearRecovery',
+        'settleRecovery',
         'onMenuCommand',
         'onOpenRecentRequest',
       ].sort(),
@@ -71,9 +73,11 @@ describe('preload', () => {
     ['recentFiles', [], CHANNELS.recentFiles],
     ['demoProject', [], CHANNELS.demoProject],
     ['setDocumentState', [{ dirty: true, title: 'a' }], CHANNELS.setDocumentState],
+    ['saveRefused', [], CHANNELS.saveRefused],
     ['writeRecovery', ['{}'], CHANNELS.writeRecovery],
     ['readRecovery', [], CHANNELS.readRecovery],
     ['clearRecovery', [], CHANNELS.clearRecovery],
+    ['settleRecovery', ['mhx1-0123456789ab'], CHANNELS.settleRecovery],
   ] as const)('%s invokes its own channel with its argument', async (method, args, channel) => {
     electron.ipcRenderer.invoke.mockClear()
     const call = bridge[method] as (...a: unknown[]) => Promise<unknown>

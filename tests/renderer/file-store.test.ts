@@ -17,6 +17,10 @@ import { useProjectStore } from '../../renderer/stores/project-store'
 import { useResultsStore } from '../../renderer/stores/results-store'
 import { useViewStore } from '../../renderer/stores/view-store'
 import * as edits from '../../renderer/stores/project-edits'
+import { useSolver } from '../../renderer/solver/solver-client'
+import { decodeProjectBytes } from '../../core/model/project-bytes'
+import AppHeader from '../../renderer/components/AppHeader.vue'
+import { mount } from '@vue/test-utils'
 import { DEMO_TEXT, freshApp, MemoryBridge, settle } from './renderer-helpers'
 
 function demo() {
@@ -96,6 +100,57 @@ describe('file store', () => {
     expect(useResultsStore().firstElastic?.frequencyHz).toBe(analyseProject(other).modes[0].frequencyHz)
   })
 
+  it('reads a browser upload’s bytes in the solver (decode, parse, validate), byte-order mark and all', async () => {
+    const other = { ...demo(), title: 'Uploaded hanger' }
+    const bytes = new Uint8Array([0xef, 0xbb, 0xbf, ...new TextEncoder().encode(writeProjectText(other))])
+    const readProject = vi.spyOn(useSolver(), 'readProject')
+    bridge.nextOpen = { kind: 'opened', path: 'up.rodwave.json', name: 'up.rodwave.json', bytes }
+    await useFileStore().open()
+    await settle()
+    expect(readProject).toHaveBeenCalledExactlyOnceWith({ bytes })
+    expect(useProjectStore().draft.title).toBe('Uploaded hanger')
+    expect(useProjectStore().dirty).toBe(false)
+  })
+
+  it('refuses an upload that is not UTF-8 with core’s message, keeping the model on screen', async () => {
+    const before = useProjectStore().draftText
+    const bytes = new TextEncoder().encode(writeProjectText({ ...demo(), title: 'caf?' }))
+    bytes[bytes.indexOf(0x3f)] = 0xe9
+    const expected = decodeProjectBytes(bytes)
+    if (expected.ok) throw new Error('fixture: Latin-1 é must not be UTF-8')
+    bridge.nextOpen = { kind: 'opened', path: 'latin1.rodwave.json', name: 'latin1.rodwave.json', bytes }
+    await useFileStore().open()
+    expect(useFileStore().refused).toEqual({ name: 'latin1.rodwave.json', issues: [{ path: '(file)', message: expected.message }] })
+    expect(useProjectStore().draftText).toBe(before)
+  })
+
+  it('says that a browser’s PDF export opened the print dialog, not that a file was written', async () => {
+    bridge.exportFile = async () => ({ kind: 'print-dialog', name: 'condensate-pump-hanger-report.pdf' })
+    await useFileStore().runCommand('export-report-pdf')
+    expect(useFileStore().notice?.text).toMatch(/^The report opened in a new tab with the print dialog; no file was written yet\./)
+    expect(useFileStore().notice?.text).not.toMatch(/Exported/)
+  })
+
+  it('shows the part’s title in the header after Open and Save As, the file name beside it', async () => {
+    const other = { ...demo(), title: 'Tie rod T-4, fan housing' }
+    bridge.nextOpen = { kind: 'opened', path: '/p/t4.rodwave.json', name: 't4.rodwave.json', text: writeProjectText(other) }
+    await useFileStore().open()
+    await settle()
+    const header = mount(AppHeader)
+    expect(header.get('[data-testid="document-name"]').text()).toBe('Tie rod T-4, fan housing')
+    expect(header.get('[data-testid="document-file"]').text()).toBe('t4.rodwave.json')
+    await useFileStore().runCommand('save-as')
+    await settle()
+    expect(header.get('[data-testid="document-name"]').text()).toBe('Tie rod T-4, fan housing')
+    expect(header.get('[data-testid="document-file"]').text()).toBe('t4.rodwave.json')
+    // A part without a title is named by its file.
+    useProjectStore().edit((p) => (p.title = '  '))
+    await settle()
+    expect(header.get('[data-testid="document-name"]').text()).toBe('t4.rodwave.json')
+    expect(header.find('[data-testid="document-file"]').exists()).toBe(false)
+    header.unmount()
+  })
+
   it('saves the project file, marks it clean and clears the recovery copy', async () => {
     const project = useProjectStore()
     project.edit((p) => edits.updateAttachment(p, 'masses', 1, 'mass', 40), 'masses[1].mass')
@@ -109,6 +164,31 @@ describe('file store', () => {
     expect(bridge.recoveryCleared).toBe(1)
   })
 
+  it('marks saved exactly what was written: an edit made while the save is in flight stays unsaved and is kept for recovery', async () => {
+    const project = useProjectStore()
+    project.edit((p) => edits.updateAttachment(p, 'masses', 1, 'mass', 40), 'masses[1].mass')
+    const written = project.validProject!
+    let finishSave!: () => void
+    const save = bridge.saveProject.bind(bridge)
+    bridge.saveProject = (request) => new Promise((resolve) => (finishSave = () => resolve(save(request))))
+    const saving = useFileStore().runCommand('save')
+    await settle()
+    // The user types on while the file is being written.
+    project.edit((p) => edits.updateAttachment(p, 'masses', 1, 'mass', 45))
+    const edited = project.draftText
+    finishSave()
+    await saving
+    expect(bridge.saved[0]!.text).toBe(writeProjectText(written))
+    expect(project.dirty).toBe(true)
+    expect(project.draftText).toBe(edited)
+    // The recovery copy is not cleared: the newer edit is on neither disk nor the close prompt otherwise.
+    expect(bridge.recoveryCleared).toBe(0)
+    expect(bridge.states.at(-1)?.dirty).toBe(true)
+    // Undoing the edit made during the save comes back to exactly what was saved.
+    project.undo()
+    expect(project.dirty).toBe(false)
+  })
+
   it('refuses to save a part with problems and says why', async () => {
     const project = useProjectStore()
     project.edit((p) => edits.setSegmentLength(p, 0, -1))
@@ -119,6 +199,8 @@ describe('file store', () => {
     expect(bridge.saved).toHaveLength(0)
     expect(files.notice?.kind).toBe('error')
     expect(files.notice?.text).toContain(`The part has ${problems} problem`)
+    // The desktop's close prompt, if it asked for this save, is told at once.
+    expect(bridge.saveRefusals).toBe(1)
   })
 
   it('writes unsaved work to the recovery file every few seconds', async () => {
@@ -134,17 +216,89 @@ describe('file store', () => {
     expect(bridge.recoveryWrites).toHaveLength(writes)
   })
 
-  it('offers a recovery file found at start and restores it as unsaved work', async () => {
+  it('offers the copy an earlier session left and restores it as unsaved work, removing the copy only once the work is this session’s copy', async () => {
     const recovered = { ...demo(), title: 'Recovered hanger' }
     const second = freshApp()
-    second.recovery = writeProjectText(recovered)
+    second.earlierCopies = [{ id: 'mhx1-0123456789ab', text: writeProjectText(recovered), savedAt: '2026-12-01T08:00:00.000Z' }]
+    const ownCopyWhenSettled: (string | null)[] = []
+    const settle = second.settleRecovery.bind(second)
+    second.settleRecovery = async (id) => {
+      ownCopyWhenSettled.push(second.recovery)
+      return settle(id)
+    }
     const files = useFileStore()
     await files.start()
-    expect(files.recoveryText).toBe(second.recovery)
+    expect(files.recoveryText).toBe(writeProjectText(recovered))
     await files.restoreRecovery()
     expect(useProjectStore().draft.title).toBe('Recovered hanger')
     expect(useProjectStore().dirty).toBe(true)
+    expect(second.settled).toEqual(['mhx1-0123456789ab'])
+    // At the moment the earlier copy went, the restored work was already this session's copy.
+    expect(ownCopyWhenSettled).toEqual([useProjectStore().draftText])
+    expect(files.recoveryText).toBeNull()
     files.stop()
+  })
+
+  it('keeps an earlier session’s copy while this session autosaves and after "Discard" of other work, until the user answers', async () => {
+    vi.useFakeTimers()
+    const second = freshApp()
+    second.earlierCopies = [{ id: 'mhx1-0123456789ab', text: writeProjectText({ ...demo(), title: 'Crashed work' }), savedAt: null }]
+    const files = useFileStore()
+    await files.start()
+    useProjectStore().edit((p) => edits.setEnd(p, 'start', 'free'))
+    await vi.advanceTimersByTimeAsync(3 * AUTOSAVE_MS + 10)
+    // This session's autosave went to its own copy; the earlier one was neither overwritten nor removed.
+    expect(second.recovery).toBe(useProjectStore().draftText)
+    expect(second.settled).toEqual([])
+    expect(files.recoveryText).toBe(second.earlierCopies[0]!.text)
+    await files.discardRecovery()
+    expect(second.settled).toEqual(['mhx1-0123456789ab'])
+    expect(second.recovery).toBe(useProjectStore().draftText)
+    expect(files.recoveryText).toBeNull()
+    files.stop()
+  })
+
+  it('leaves a copy that cannot be read on offer, so that it can be discarded', async () => {
+    const second = freshApp()
+    second.earlierCopies = [{ id: 'mhx1-0123456789ab', text: '{"format": "rodw', savedAt: null }]
+    const files = useFileStore()
+    await files.start()
+    await files.restoreRecovery()
+    expect(files.refused?.name).toBe('the recovery file')
+    expect(second.settled).toEqual([])
+    expect(files.recoveryText).toBe('{"format": "rodw')
+    files.stop()
+  })
+
+  it('asks before restoring over unsaved edits', async () => {
+    const second = freshApp()
+    second.earlierCopies = [{ id: 'mhx1-0123456789ab', text: writeProjectText({ ...demo(), title: 'Recovered hanger' }), savedAt: null }]
+    const files = useFileStore()
+    await files.start()
+    useProjectStore().edit((p) => edits.setEnd(p, 'end', 'fixed'))
+    const restoring = files.restoreRecovery()
+    await settle()
+    expect(files.confirmation?.message).toContain('not saved')
+    files.confirmation!.resolve(false)
+    await restoring
+    expect(useProjectStore().draft.ends.end).toBe('fixed')
+    expect(second.settled).toEqual([])
+    files.stop()
+  })
+
+  it('removes this session’s copy once the document is back to its saved state', async () => {
+    vi.useFakeTimers()
+    const files = useFileStore()
+    files.stop()
+    await files.start()
+    const project = useProjectStore()
+    project.edit((p) => edits.setEnd(p, 'start', 'free'))
+    await vi.advanceTimersByTimeAsync(AUTOSAVE_MS + 10)
+    expect(bridge.recovery).toBe(project.draftText)
+    project.undo()
+    expect(project.dirty).toBe(false)
+    await vi.advanceTimersByTimeAsync(AUTOSAVE_MS + 10)
+    expect(bridge.recovery).toBeNull()
   })
 
   it('runs the desktop menu’s commands, once when the keyboard sends the same', async () => {

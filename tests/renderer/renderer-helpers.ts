@@ -2,7 +2,7 @@
 import { readFileSync } from 'node:fs'
 import { join } from 'node:path'
 import { createPinia, setActivePinia } from 'pinia'
-import type { ExportRequest, MenuCommand, OpenResult, RodwaveBridge, SaveRequest } from '../../renderer/bridge/contract'
+import type { ExportRequest, ExportResult, MenuCommand, OpenResult, RecoveredWork, RodwaveBridge, SaveRequest } from '../../renderer/bridge/contract'
 import { setBridge } from '../../renderer/bridge/bridge'
 import { createInlineSolverClient, setSolver } from '../../renderer/solver/solver-client'
 
@@ -14,7 +14,12 @@ export const DEMO_TEXT = readFileSync(DEMO_PATH, 'utf8')
 export class MemoryBridge implements RodwaveBridge {
   readonly platform = 'browser' as const
   nextOpen: OpenResult = { kind: 'cancelled' }
+  /** This session's recovery copy. */
   recovery: string | null = null
+  /** Copies earlier sessions left (readRecovery offers them). */
+  earlierCopies: RecoveredWork[] = []
+  /** Ids of earlier copies the window settled (restored or discarded). */
+  readonly settled: string[] = []
   readonly saved: SaveRequest[] = []
   readonly exported: ExportRequest[] = []
   readonly states: { dirty: boolean; title: string }[] = []
@@ -36,7 +41,7 @@ export class MemoryBridge implements RodwaveBridge {
     const name = request.path ?? request.suggestedName
     return { kind: 'saved' as const, path: `/projects/${name}`, name }
   }
-  async exportFile(request: ExportRequest) {
+  async exportFile(request: ExportRequest): Promise<ExportResult> {
     this.exported.push(request)
     return { kind: 'saved' as const, path: `/exports/${request.suggestedName}`, name: request.suggestedName }
   }
@@ -49,16 +54,24 @@ export class MemoryBridge implements RodwaveBridge {
   async setDocumentState(state: { dirty: boolean; title: string }): Promise<void> {
     this.states.push(state)
   }
+  saveRefusals = 0
+  async saveRefused(): Promise<void> {
+    this.saveRefusals++
+  }
   async writeRecovery(text: string): Promise<void> {
     this.recoveryWrites.push(text)
     this.recovery = text
   }
-  async readRecovery(): Promise<string | null> {
-    return this.recovery
+  async readRecovery(): Promise<RecoveredWork[]> {
+    return [...this.earlierCopies]
   }
   async clearRecovery(): Promise<void> {
     this.recoveryCleared++
     this.recovery = null
+  }
+  async settleRecovery(id: string): Promise<void> {
+    this.settled.push(id)
+    this.earlierCopies = this.earlierCopies.filter((copy) => copy.id !== id)
   }
   onMenuCommand(listener: (command: MenuCommand) => void): () => void {
     this.listeners.add(listener)

@@ -1,4 +1,7 @@
-/** A small static file server for the built renderer (module scripts and workers do not load from file://). */
+/**
+ * A small static file server for the built renderer (module scripts and workers do not load
+ * from file://): `npm run web` and the browser tests. Local only (127.0.0.1).
+ */
 import { createServer, type Server } from 'node:http'
 import { readFile, stat } from 'node:fs/promises'
 import { extname, join, normalize, resolve, sep } from 'node:path'
@@ -12,6 +15,8 @@ const TYPES: Record<string, string> = {
   '.svg': 'image/svg+xml',
   '.png': 'image/png',
   '.map': 'application/json; charset=utf-8',
+  '.txt': 'text/plain; charset=utf-8',
+  '.woff2': 'font/woff2',
 }
 
 export interface StaticServer {
@@ -19,8 +24,13 @@ export interface StaticServer {
   close(): Promise<void>
 }
 
-/** Serves `root` on a free port of 127.0.0.1; paths outside it are refused. */
-export async function startStaticServer(root: string): Promise<StaticServer> {
+export interface StaticServerOptions {
+  /** The port to listen on; 0 (the default) takes a free one. */
+  readonly port?: number
+}
+
+/** Serves `root` on 127.0.0.1 (on a free port unless one is given); paths outside it are refused. */
+export async function startStaticServer(root: string, options: StaticServerOptions = {}): Promise<StaticServer> {
   const base = resolve(root)
   const server: Server = createServer(async (request, response) => {
     try {
@@ -39,7 +49,13 @@ export async function startStaticServer(root: string): Promise<StaticServer> {
       response.writeHead(404, { 'Content-Type': 'text/plain' }).end('not found')
     }
   })
-  await new Promise<void>((done) => server.listen(0, '127.0.0.1', done))
+  await new Promise<void>((done, fail) => {
+    server.once('error', fail)
+    server.listen(options.port ?? 0, '127.0.0.1', () => {
+      server.off('error', fail)
+      done()
+    })
+  })
   const address = server.address()
   if (address === null || typeof address === 'string') throw new Error('the server has no port')
   return {
