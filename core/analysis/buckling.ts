@@ -1,7 +1,7 @@
 /**
  * The buckling load of a part under a steady compression, with its bending supports: the least
  * P at which K_E − P·K_G (elastic minus geometric stiffness, from ½∫EI w″² dx and ½∫P w′² dx) is
- * singular. Finite elements (Hermite cubics converge as h⁴ in the load, as in frequency) on two
+ * singular. Exact for uniform Euler–Bernoulli segments (exact/beam-buckling.ts); otherwise finite elements (Hermite cubics converge as h⁴ in the load, as in frequency) on two
  * fine meshes with Richardson extrapolation; each load found by bisection on the Sturm count of
  * K_E − P·K_G (Sylvester's law of inertia: its negative pivots are the buckling loads below P).
  * A rotation the supports leave free makes any compression unstable (critical load 0); a free
@@ -15,6 +15,8 @@ import { materialOf, totalLength } from '../model/geometry'
 import type { AnalysisSettings, Project } from '../model/project'
 import { secondMoments } from '../model/section-properties'
 import { freeRigidMotions } from '../fe/assemble'
+import { beamCriticalCompression } from '../exact/beam-buckling'
+import { beamStationChain, hasExactBending } from '../exact/beam-project'
 
 export interface BucklingCheck {
   /** The compression applied, N (> 0). */
@@ -36,6 +38,14 @@ export function checkBuckling(project: Project, settings: AnalysisSettings): Buc
 }
 
 export function criticalCompression(project: Project, settings: AnalysisSettings): { load: number; method: string } {
+  const unloaded: Project = { ...project, preload: 0 }
+  if (freeRigidMotions(unloaded).some((m) => m.b !== 0)) return { load: 0, method: 'a rotation the supports leave free' }
+  if (hasExactBending(project)) return { load: beamCriticalCompression(beamStationChain(unloaded, 'weak')), method: 'exact, Euler–Bernoulli segments' }
+  return finiteElementCriticalCompression(unloaded, settings)
+}
+
+/** The critical compression by finite elements on two meshes with Richardson extrapolation (any section, either theory). */
+export function finiteElementCriticalCompression(project: Project, settings: AnalysisSettings): { load: number; method: string } {
   const unloaded: Project = { ...project, preload: 0 }
   if (freeRigidMotions(unloaded).some((m) => m.b !== 0)) return { load: 0, method: 'a rotation the supports leave free' }
   // 64 and 128 Hermite elements per segment: the h⁴ error is then far below 1e-8 after

@@ -13,6 +13,8 @@ import type { Family } from '../model/families'
 import type { AnalysisSettings, Project } from '../model/project'
 import { springMotion } from '../model/project'
 import { exactReference } from './reference'
+import { exactBeamAngularFrequencies } from './beam-frequencies'
+import { beamStationChain, hasExactBending } from './beam-project'
 
 export interface FamilyReference {
   readonly method: 'exact' | 'extrapolated' | null
@@ -27,7 +29,22 @@ export function axialView(project: Project): Project {
 
 export function familyReference(project: Project, family: Family, settings: AnalysisSettings, count: number): FamilyReference {
   if (family.motion === 'axial') return exactReference(axialView(project), count)
+  const exact = exactFamilyFrequencies(project, family, count)
+  if (exact) return { method: 'exact', formulation: EXACT_FORMULATION[family.motion], frequenciesHz: exact }
   return extrapolatedReference(project, family, settings, count)
+}
+
+const EXACT_FORMULATION: Record<string, string> = {
+  bending: 'exact Euler–Bernoulli segments with the axial force (transfer matrices, Wittrick–Williams count)',
+  torsion: 'transfer matrices with the Wittrick–Williams count',
+}
+
+/** Exact frequencies (Hz) of a torsion or bending family where an exact solution exists, else null. */
+function exactFamilyFrequencies(project: Project, family: Family, count: number): number[] | null {
+  if (family.motion === 'bending' && hasExactBending(project)) {
+    return exactBeamAngularFrequencies(beamStationChain(project, family.plane ?? 'weak'), count).map((w) => w / (2 * Math.PI))
+  }
+  return null
 }
 
 /** Unknowns above which the two reference meshes are not refined further. */
@@ -81,5 +98,7 @@ function describe(s: AnalysisSettings): string {
  */
 export function designFrequencies(project: Project, family: Family, settings: AnalysisSettings, count: number): number[] {
   if (family.motion === 'axial') return exactReference(axialView(project), count).frequenciesHz
+  const exact = exactFamilyFrequencies(project, family, count)
+  if (exact) return exact
   return analyseFamily(project, family, { ...settings, modes: count }, { withReference: false }).modes.map((m) => m.frequencyHz)
 }

@@ -18,7 +18,7 @@
 import { describe, expect, test } from 'vitest'
 import { CholeskyDecomposition, EigenvalueDecomposition, Matrix, inverse } from 'ml-matrix'
 import { AnalysisInputError, analyseFamily, analyseProject, effectiveSettings, modeShape } from '../../core/analysis/modal-analysis'
-import { criticalCompression } from '../../core/analysis/buckling'
+import { criticalCompression, finiteElementCriticalCompression } from '../../core/analysis/buckling'
 import { assembleFamily } from '../../core/fe/assemble'
 import { lowestModes } from '../../core/linalg/lowest-modes'
 import { sturmCounts } from '../../core/linalg/shifted-ldlt'
@@ -233,9 +233,10 @@ describe('buckling (Euler loads, Timoshenko & Gere, from memory)', () => {
     ['clamped', 'pinned', (u * u) / (Math.PI * Math.PI)],
   ]
   for (const [start, end, factor] of cases) {
-    test(`${start}–${end}: critical compression ${factor.toFixed(4)}·π²EI/L² to 1e-8`, () => {
+    test(`${start}–${end}: critical compression ${factor.toFixed(4)}·π²EI/L², exact to 1e-12 and by finite elements to 1e-8`, () => {
       const p = beam(start, end, { L, n: 20 })
-      expectRelative(criticalCompression(p, effectiveSettings(p)).load, factor * euler, 1e-8, 'critical load')
+      expectRelative(criticalCompression(p, effectiveSettings(p)).load, factor * euler, 1e-12, 'critical load (exact route)')
+      expectRelative(finiteElementCriticalCompression(p, effectiveSettings(p)).load, factor * euler, 1e-8, 'critical load (finite elements)')
     })
   }
   test('at 90 % of the buckling load a warning names it; at or beyond it the analysis refuses, naming the preload', () => {
