@@ -281,7 +281,7 @@ describe('file store', () => {
     expect(files.confirmation?.message).toContain('not saved')
     files.confirmation!.resolve(false)
     await restoring
-    expect(useProjectStore().draft.ends.end).toBe('fixed')
+    expect(useProjectStore().draft.ends.end.axial).toBe('fixed')
     expect(second.settled).toEqual([])
     files.stop()
   })
