@@ -74,13 +74,13 @@ describe('a tapered (solid cone) cantilever in bending', () => {
     analysis: { elementsPerSegment: 40, modes: 3 },
   })
   if (!read.ok) throw new Error(JSON.stringify(read.issues))
-  test('the Ritz check itself has converged (12 and 16 trial functions agree to 1e-10)', () => {
-    const a = ritz(12, 3)
-    const b = ritz(16, 3)
-    b.forEach((f, i) => expectRelative(a[i], f, 1e-10, `Ritz mode ${i + 1}`))
+  test('the Ritz check itself has converged (16 and 20 trial functions agree to 1e-9, below the 1e-8 asked of the reference)', () => {
+    const a = ritz(16, 3)
+    const b = ritz(20, 3)
+    b.forEach((f, i) => expectRelative(a[i], f, 1e-9, `Ritz mode ${i + 1}`))
   })
   test('the extrapolated reference meets the Ritz frequencies to 1e-8, the finite elements at the file’s mesh to 2e-3', () => {
-    const expected = ritz(16, 3)
+    const expected = ritz(20, 3)
     const family = analyseProject(read.project).families[0]
     expect(family.reference.method).toBe('extrapolated')
     expect(family.reference.formulation).toMatch(/Richardson/)
