@@ -10,11 +10,11 @@
  * The finite-element discretisation plays no part, so these are the sensitivities of the
  * exact frequencies (the tests compare them with central differences of the exact solver).
  */
-import { exactModeShape, integrateOverMember } from '../exact/exact-mode-shape'
+import { integrateOverMember, modeEnergies, type ModeEnergies } from '../exact/exact-mode-shape'
 import { stationChain } from '../exact/reference'
 import { exactAngularFrequencies, hasRigidBodyMode, type StationChain } from '../exact/wittrick-williams'
 import type { Project, Section } from '../model/project'
-import { resolveMaterial } from '../model/geometry'
+import { materialOf } from '../model/geometry'
 import { designParameters, type DesignParameter } from './design-parameters'
 
 export interface Sensitivity {
@@ -47,15 +47,6 @@ function areaDerivative(section: Section, dimension: string, t: number): number 
   }
 }
 
-interface ModeEnergies {
-  readonly lambda: number
-  readonly denominator: number
-  readonly stationU: number[]
-  /** Per member: ∫EA u′², ∫ρA u². */
-  readonly strain: number[]
-  readonly kinetic: number[]
-}
-
 /** Sensitivities of the lowest `modes` exact frequencies (rigid-body modes skipped). */
 export function frequencySensitivities(project: Project, modes: number, parameters: DesignParameter[] = designParameters(project, ['axial'])): Sensitivity[] {
   const chain = stationChain(project)
@@ -75,22 +66,6 @@ export function frequencySensitivities(project: Project, modes: number, paramete
   return out
 }
 
-function modeEnergies(chain: StationChain, omega: number): ModeEnergies {
-  const shape = exactModeShape(chain, omega)
-  const strain: number[] = []
-  const kinetic: number[] = []
-  let denominator = 0
-  chain.members.forEach((member, i) => {
-    const start = shape.members[i]
-    const E = member.youngsModulus
-    strain.push(integrateOverMember(member, start, omega, (_x, _u, n, area) => (n * n) / (E * area)))
-    kinetic.push(integrateOverMember(member, start, omega, (_x, u, _n, area) => member.density * area * u * u))
-    denominator += kinetic[i]
-  })
-  shape.stationDisplacement.forEach((u, s) => (denominator += chain.stationMass[s] * u * u))
-  return { lambda: omega * omega, denominator, stationU: shape.stationDisplacement, strain, kinetic }
-}
-
 /** The station nearest to a position along the bar. */
 function stationOf(chain: StationChain, at: number): number {
   let x = 0
@@ -108,26 +83,27 @@ function stationOf(chain: StationChain, at: number): number {
 }
 
 function lambdaDerivative(project: Project, chain: StationChain, omega: number, e: ModeEnergies, p: DesignParameter): number {
-  const { lambda, denominator } = e
+  const lambda = omega * omega
+  const { denominator } = e
   const target = p.target
   switch (target.kind) {
     case 'mass': {
-      const u = e.stationU[stationOf(chain, project.masses[target.index].at)]
+      const u = e.shape.stationDisplacement[stationOf(chain, project.masses[target.index].at)]
       return (-lambda * u * u) / denominator
     }
     case 'stiffness': {
-      const u = e.stationU[stationOf(chain, project.springs[target.index].at)]
+      const u = e.shape.stationDisplacement[stationOf(chain, project.springs[target.index].at)]
       return (u * u) / denominator
     }
     case 'youngsModulus':
     case 'density': {
       let sum = 0
-      const material = resolveMaterial(project, target.material)
       chain.members.forEach((member, i) => {
         const segment = project.segments[member.segment ?? 0]
         if (segment.material !== target.material) return
         // EA u′² and ρA u² are linear in E and ρ.
-        sum += target.kind === 'youngsModulus' ? e.strain[i] / (material?.youngsModulus ?? member.youngsModulus) : (-lambda * e.kinetic[i]) / (material?.density ?? member.density)
+        const material = materialOf(project, segment)
+        sum += target.kind === 'youngsModulus' ? e.strain[i] / material.youngsModulus : (-lambda * e.kinetic[i]) / material.density
       })
       return sum / denominator
     }
@@ -143,17 +119,16 @@ function lambdaDerivative(project: Project, chain: StationChain, omega: number, 
     }
     case 'sectionDimension': {
       const segment = project.segments[target.segment]
-      const shape = exactModeShape(chain, omega)
+      const { youngsModulus: E, density } = materialOf(project, segment)
       let sum = 0
       chain.members.forEach((member, i) => {
         if (member.segment !== target.segment) return
         const t0 = member.t0 ?? 0
         const t1 = member.t1 ?? 1
-        const E = member.youngsModulus
-        sum += integrateOverMember(member, shape.members[i], omega, (x, u, n, area) => {
+        sum += integrateOverMember(member, e.shape.members[i], omega, (x, u, n, stiffness) => {
           const t = t0 + ((t1 - t0) * x) / member.length
-          const strainDensity = n / (E * area) // u′
-          return (E * strainDensity * strainDensity - lambda * member.density * u * u) * areaDerivative(segment.section, target.dimension, t)
+          const strainDensity = n / stiffness // u′ = N/(EA)
+          return (E * strainDensity * strainDensity - lambda * density * u * u) * areaDerivative(segment.section, target.dimension, t)
         })
       })
       return sum / denominator

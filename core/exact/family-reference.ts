@@ -15,6 +15,9 @@ import { springMotion } from '../model/project'
 import { exactReference } from './reference'
 import { exactBeamAngularFrequencies } from './beam-frequencies'
 import { beamStationChain, hasExactBending } from './beam-project'
+import { torsionExactReference, type TorsionChainInput } from './torsion-chain'
+import { materialOf } from '../model/geometry'
+import { polarMoment, shearModulus, torsionConstant } from '../model/section-properties'
 
 export interface FamilyReference {
   readonly method: 'exact' | 'extrapolated' | null
@@ -41,6 +44,7 @@ const EXACT_FORMULATION: Record<string, string> = {
 
 /** Exact frequencies (Hz) of a torsion or bending family where an exact solution exists, else null. */
 function exactFamilyFrequencies(project: Project, family: Family, count: number): number[] | null {
+  if (family.motion === 'torsion') return torsionExactReference(torsionInput(project), count).frequenciesHz
   if (family.motion === 'bending' && hasExactBending(project)) {
     return exactBeamAngularFrequencies(beamStationChain(project, family.plane ?? 'weak'), count).map((w) => w / (2 * Math.PI))
   }
@@ -101,4 +105,25 @@ export function designFrequencies(project: Project, family: Family, settings: An
   const exact = exactFamilyFrequencies(project, family, count)
   if (exact) return exact
   return analyseFamily(project, family, { ...settings, modes: count }, { withReference: false }).modes.map((m) => m.frequencyHz)
+}
+
+/** A project's torsion as the exact chain reads it: G, J and Ip of each segment, disks and torsional springs. */
+export function torsionInput(project: Project): TorsionChainInput {
+  return {
+    segments: project.segments.map((segment) => {
+      const material = materialOf(project, segment)
+      const section = segment.section
+      return {
+        length: segment.length,
+        shearModulus: shearModulus(material) as number,
+        density: material.density,
+        torsionConstant: torsionConstant(section, 0) as number,
+        polarMoment: polarMoment(section, 0) as number,
+        diameterRatio: section.shape === 'cone' ? section.endDiameter / section.startDiameter : 1,
+      }
+    }),
+    disks: project.masses.filter((m) => (m.polarInertia ?? 0) > 0).map((m) => ({ at: m.at, polarInertia: m.polarInertia as number })),
+    springs: project.springs.filter((s) => springMotion(s) === 'torsion').map((s) => ({ at: s.at, stiffness: s.stiffness })),
+    ends: { start: project.ends.start.torsion, end: project.ends.end.torsion },
+  }
 }

@@ -5,9 +5,9 @@
  * `formulation` says which. A model outside both would get method null.
  */
 import type { Project } from '../model/project'
-import { SAME_POSITION, materialOf, sectionArea, segmentBoundaries, totalLength } from '../model/geometry'
+import { SAME_POSITION, materialOf, sectionArea, totalLength } from '../model/geometry'
 import { tipMassRoots, tipSpringRoots, uniformBarFrequencies } from './closed-form'
-import type { ExactMember } from './transfer-matrix'
+import { buildStationChain, type ChainSegment } from './station-chain'
 import { exactAngularFrequencies, type StationChain } from './wittrick-williams'
 
 export interface ExactReference {
@@ -16,60 +16,38 @@ export interface ExactReference {
   readonly frequenciesHz: number[]
 }
 
-/** Stations at segment boundaries and attachments; members between them. */
+/** The axial chain of a project: S = EA, I = ρA, point masses and springs at their stations. */
 export function stationChain(project: Project): StationChain {
-  const bounds = segmentBoundaries(project.segments)
-  const length = bounds[bounds.length - 1]
-  const snap = SAME_POSITION * length
-  const positions = [...bounds, ...project.masses.map((m) => m.at), ...project.springs.map((s) => s.at)].sort((a, b) => a - b)
-  const stations: number[] = []
-  for (const x of positions) if (stations.length === 0 || x - stations[stations.length - 1] > snap) stations.push(x)
-  const members: ExactMember[] = []
-  for (let i = 0; i + 1 < stations.length; i++) {
-    const x0 = stations[i]
-    const x1 = stations[i + 1]
-    let s = 0
-    while (s + 1 < project.segments.length && bounds[s + 1] <= x0 + snap) s++
-    const segment = project.segments[s]
+  const segments: ChainSegment[] = project.segments.map((segment) => {
     const material = materialOf(project, segment)
-    const segmentLength = segment.length
-    const t0 = (x0 - bounds[s]) / segmentLength
-    const t1 = (x1 - bounds[s]) / segmentLength
+    const area = sectionArea(segment.section, 0)
     const section = segment.section
-    const diameterRatio =
-      section.shape === 'cone'
-        ? (section.startDiameter + (section.endDiameter - section.startDiameter) * t1) /
-          (section.startDiameter + (section.endDiameter - section.startDiameter) * t0)
-        : 1
-    members.push({
-      length: x1 - x0,
-      youngsModulus: material.youngsModulus,
-      density: material.density,
-      startArea: sectionArea(section, t0),
-      diameterRatio,
-      segment: s,
-      t0,
-      t1,
-    })
-  }
-  const stationIndex = (x: number) => {
-    let best = 0
-    for (let i = 1; i < stations.length; i++) if (Math.abs(stations[i] - x) < Math.abs(stations[best] - x)) best = i
-    return best
-  }
-  const stationStiffness = stations.map(() => 0)
-  const stationMass = stations.map(() => 0)
-  for (const sp of project.springs) stationStiffness[stationIndex(sp.at)] += sp.stiffness
-  for (const pm of project.masses) stationMass[stationIndex(pm.at)] += pm.mass
-  return { members, stationStiffness, stationMass, fixedStart: project.ends.start.axial === 'fixed', fixedEnd: project.ends.end.axial === 'fixed' }
+    return {
+      length: segment.length,
+      startStiffness: material.youngsModulus * area,
+      startInertia: material.density * area,
+      diameterRatio: section.shape === 'cone' ? section.endDiameter / section.startDiameter : 1,
+      taperPower: 2,
+    }
+  })
+  const attachments = [
+    ...project.masses.map((m) => ({ at: m.at, stiffness: 0, inertia: m.mass })),
+    ...project.springs.map((s) => ({ at: s.at, stiffness: s.stiffness, inertia: 0 })),
+  ]
+  return buildStationChain(segments, attachments, { start: project.ends.start.axial, end: project.ends.end.axial })
+}
+
+/** The lowest `count` frequencies of a chain by transfer matrices and the Wittrick–Williams count, Hz. */
+export function chainReference(chain: StationChain, count: number): ExactReference {
+  const omegas = exactAngularFrequencies(chain, count)
+  return { method: 'exact', formulation: 'transfer matrices with the Wittrick–Williams count', frequenciesHz: omegas.map((w) => w / (2 * Math.PI)) }
 }
 
 /** Lowest `count` exact natural frequencies, Hz. */
 export function exactReference(project: Project, count: number): ExactReference {
   const closed = closedFormReference(project, count)
   if (closed) return closed
-  const omegas = exactAngularFrequencies(stationChain(project), count)
-  return { method: 'exact', formulation: 'transfer matrices with the Wittrick–Williams count', frequenciesHz: omegas.map((w) => w / (2 * Math.PI)) }
+  return chainReference(stationChain(project), count)
 }
 
 /** A single uniform segment, bare or with one tip mass or tip spring at the free end of a fixed–free bar. */

@@ -4,48 +4,77 @@
  * where J_member counts each member's clamped–clamped frequencies below ω and s{D} is
  * the number of negative pivots of the assembled dynamic stiffness at the stations
  * (W. H. Wittrick & F. W. Williams, Q. J. Mech. Appl. Math. 24 (1971) 263–284, from memory).
- * The n-th frequency is the point where J steps from n − 1 to n. Bisection on J isolates it;
- * close to a root the pivots cancel (their signs are unreliable within ~√ε of it), so the last
- * digits come from the sign of the shooting function below, which is smooth there.
+ *
+ * The pivots are not formed by eliminating D: a member's dynamic stiffness is of order S/L
+ * while a soft spring or a near-rigid mode lives in the difference k − ω²m, so elimination
+ * loses every digit of it (a free–free bar on a 1e-6 N/m spring came out 1.2e-3 low). Instead
+ * the state (y, F) is carried from the start's boundary condition through the members (their
+ * transfer matrices) and stations (F⁺ = F⁻ + (k − mω²) y): after eliminating every station
+ * before s, the reduced stiffness at s is F⁺_s / y_s, so its pivot is
+ *   F⁺_s/y_s + T₁₁/T₁₂ = y_{s+1} / (y_s T₁₂)      (member s from station s to s + 1),
+ * and F⁺/y at a free end. Only signs are needed, and each comes from quantities the shooting
+ * computes to full relative accuracy.
+ * The n-th frequency is the point where J steps from n − 1 to n: bisection on J isolates it,
+ * and the last digits come from the sign of the shooting function, which is smooth there.
  */
-import { clampedMemberCount, memberDynamicStiffness, memberTransferMatrix, type ExactMember } from './transfer-matrix'
+import { clampedMemberCount, memberTransferMatrix, type ExactMember } from './transfer-matrix'
 
 export interface StationChain {
   /** Members between consecutive stations: members.length + 1 stations. */
   readonly members: readonly ExactMember[]
-  /** Grounded stiffness (N/m) and point mass (kg) at each station. */
+  /** Grounded stiffness at each station: N/m (axial) or N·m/rad (torsion). */
   readonly stationStiffness: readonly number[]
+  /** Inertia at each station: a point mass in kg (axial) or a disk's polar inertia in kg·m² (torsion). */
   readonly stationMass: readonly number[]
   readonly fixedStart: boolean
   readonly fixedEnd: boolean
 }
 
-/** J(ω): the number of natural frequencies strictly below ω (ω > 0, rad/s). */
-export function frequenciesBelow(chain: StationChain, omega: number): number {
-  const stations = chain.members.length + 1
+/**
+ * J(ω) from one pass from start to end, or −1 when a pivot or a T₁₂ is exactly zero (ω sits
+ * on a sub-chain's own frequency). The state is rescaled by a positive factor after every
+ * member, which changes no sign.
+ */
+function countFromShooting(chain: StationChain, omega: number): number {
+  const w2 = omega * omega
+  const members = chain.members
+  let y = chain.fixedStart ? 0 : 1
+  let f = chain.fixedStart ? 1 : chain.stationStiffness[0] - w2 * chain.stationMass[0]
   let count = 0
-  for (const member of chain.members) count += clampedMemberCount(member, omega)
-  const diagonal = new Float64Array(stations)
-  const off = new Float64Array(stations)
-  for (let s = 0; s < stations; s++) diagonal[s] = chain.stationStiffness[s] - omega * omega * chain.stationMass[s]
-  chain.members.forEach((member, i) => {
-    const d = memberDynamicStiffness(member, omega)
-    diagonal[i] += d.d11
-    diagonal[i + 1] += d.d22
-    off[i] = d.d12
-  })
-  const first = chain.fixedStart ? 1 : 0
-  const last = chain.fixedEnd ? stations - 2 : stations - 1
-  let previousPivot = 0
-  let previousOff = 0
-  for (let s = first; s <= last; s++) {
-    let pivot = diagonal[s] - (s > first ? (previousOff * previousOff) / previousPivot : 0)
-    if (pivot === 0 || !Number.isFinite(pivot)) pivot = -Number.MIN_VALUE
-    if (pivot < 0) count++
-    previousPivot = pivot
-    previousOff = off[s]
+  for (let i = 0; i < members.length; i++) {
+    const member = members[i]
+    const [t11, t12, t21, t22] = memberTransferMatrix(member, omega)
+    const yNext = t11 * y + t12 * f
+    const fNext = t21 * y + t22 * f + (chain.stationStiffness[i + 1] - w2 * chain.stationMass[i + 1]) * yNext
+    count += clampedMemberCount(member, omega, t12)
+    // Station i is an unknown unless it is a fixed start; its pivot is yNext/(y t12).
+    if (!(i === 0 && chain.fixedStart)) {
+      if (y === 0 || yNext === 0 || t12 === 0) return -1
+      if (yNext < 0 !== y < 0 !== t12 < 0) count++
+    }
+    const scale = Math.abs(yNext) + Math.abs(fNext) / (member.startStiffness * (1 + omega))
+    y = yNext / scale
+    f = fNext / scale
+  }
+  if (!chain.fixedEnd) {
+    // The free end is an unknown too; its pivot is F⁺/y.
+    if (y === 0 || f === 0) return -1
+    if (f < 0 !== y < 0) count++
   }
   return count
+}
+
+/** J(ω): the number of natural frequencies strictly below ω (ω > 0, rad/s). */
+export function frequenciesBelow(chain: StationChain, omega: number): number {
+  // J is continuous from the left, so a probe that lands exactly on a zero pivot (a member's
+  // or a sub-chain's own frequency) is moved down by a few ulps.
+  let probe = omega
+  for (let attempt = 0; attempt < 8; attempt++) {
+    const count = countFromShooting(chain, probe)
+    if (count >= 0) return count
+    probe = probe * (1 - 4 * Number.EPSILON)
+  }
+  throw new RangeError(`the frequency count cannot be evaluated at ω = ${omega} rad/s`)
 }
 
 /** A free–free chain without springs has a rigid-body mode at ω = 0. */
@@ -54,25 +83,27 @@ export function hasRigidBodyMode(chain: StationChain): boolean {
 }
 
 /**
- * Shooting function: the state (u, N) carried from the start through every member
- * (transfer matrices) and station (N⁺ = N⁻ + (k − mω²)u), started from the start's boundary
- * condition; its value is the end's boundary quantity (N at a free end, u at a fixed one),
- * which vanishes exactly at the natural frequencies and changes sign through each of them.
+ * Shooting function: the state (y, F) carried from the start's boundary condition through
+ * every member and station; its value is the end's boundary quantity (F at a free end, y at
+ * a fixed one), which vanishes exactly at the natural frequencies and changes sign through
+ * each of them (they are simple: a second-order problem with separated end conditions).
  */
 export function endResidual(chain: StationChain, omega: number): number {
   const w2 = omega * omega
-  let u = chain.fixedStart ? 0 : 1
-  let n = chain.fixedStart ? 1 : (chain.stationStiffness[0] - w2 * chain.stationMass[0]) * u
-  chain.members.forEach((member, i) => {
+  const members = chain.members
+  let y = chain.fixedStart ? 0 : 1
+  let f = chain.fixedStart ? 1 : chain.stationStiffness[0] - w2 * chain.stationMass[0]
+  for (let i = 0; i < members.length; i++) {
+    const member = members[i]
     const [t11, t12, t21, t22] = memberTransferMatrix(member, omega)
-    const uNext = t11 * u + t12 * n
-    const nNext = t21 * u + t22 * n + (chain.stationStiffness[i + 1] - w2 * chain.stationMass[i + 1]) * uNext
+    const yNext = t11 * y + t12 * f
+    const fNext = t21 * y + t22 * f + (chain.stationStiffness[i + 1] - w2 * chain.stationMass[i + 1]) * yNext
     // Positive rescaling keeps the state finite without changing any sign.
-    const scale = Math.abs(uNext) + Math.abs(nNext) / (member.youngsModulus * member.startArea * (1 + omega))
-    u = scale > 0 ? uNext / scale : uNext
-    n = scale > 0 ? nNext / scale : nNext
-  })
-  return chain.fixedEnd ? u : n
+    const scale = Math.abs(yNext) + Math.abs(fNext) / (member.startStiffness * (1 + omega))
+    y = scale > 0 ? yNext / scale : yNext
+    f = scale > 0 ? fNext / scale : fNext
+  }
+  return chain.fixedEnd ? y : f
 }
 
 /** The lowest `count` natural frequencies in rad/s (0 first for a rigid-body mode). */
@@ -89,15 +120,14 @@ export function exactAngularFrequencies(chain: StationChain, count: number): num
     let hi = Math.max(probe, lo * 1.5)
     for (let i = 0; i < 200 && frequenciesBelow(chain, hi) < index; i++) hi *= 2
     let a = lo
-    // Isolate with the count, stopping well before the pivots' round-off zone.
+    // Isolate the index-th frequency alone in [a, hi] with the count…
     for (let i = 0; i < 300 && hi - a > 1e-6 * hi; i++) {
       const mid = 0.5 * (a + hi)
       if (frequenciesBelow(chain, mid) >= index) hi = mid
       else a = mid
     }
-    // Counts are unreliable within ~1e-8 of a root, so an end may sit on the wrong side of it:
-    // widen by a margin larger than that zone before looking for the sign change.
-    const root = refineRoot(chain, a, hi) ?? refineRoot(chain, a * (1 - 4e-6), hi * (1 + 4e-6)) ?? countBisection(chain, a, hi, index)
+    // …then find it by the sign of the shooting function, which changes there and only there.
+    const root = refineRoot(chain, a, hi) ?? countBisection(chain, a, hi, index)
     out.push(root)
     // Below the root, fewer than `index` frequencies: a valid lower end for the next search.
     lo = Math.min(a, root)
@@ -128,7 +158,7 @@ function refineRoot(chain: StationChain, a: number, b: number): number | null {
   return 0.5 * (lo + hi)
 }
 
-/** Fallback: bisection on the count alone (good to about √ε relative). */
+/** Fallback where the residual is exactly zero at an end of the bracket: bisection on the count alone. */
 function countBisection(chain: StationChain, a: number, b: number, index: number): number {
   let lo = a
   let hi = b
@@ -147,7 +177,7 @@ function initialProbe(chain: StationChain): number {
   let slowest = Infinity
   for (const m of chain.members) {
     total += m.length
-    slowest = Math.min(slowest, Math.sqrt(m.youngsModulus / m.density))
+    slowest = Math.min(slowest, Math.sqrt(m.startStiffness / m.startInertia))
   }
   return (Math.PI * slowest) / total / 8
 }

@@ -13,7 +13,7 @@
  * A property the file does not give is `undefined`; the file reader names it when a family needs it.
  */
 import type { Material, Section } from './project'
-import { saintVenantTorsionConstant } from './saint-venant-torsion'
+import { rectangleTorsionConstant } from './saint-venant-torsion'
 
 function roundDiameter(section: Section, t: number): number | null {
   if (section.shape === 'solid') return section.diameter
@@ -62,7 +62,7 @@ export function torsionConstant(section: Section, t = 0): number | undefined {
     case 'tube':
       return (Math.PI / 32) * (section.outerDiameter ** 4 - section.innerDiameter ** 4)
     case 'rectangle':
-      return saintVenantTorsionConstant(section.width, section.height)
+      return rectangleTorsionConstant(section.width, section.height)
     case 'area':
       return section.torsionConstant
     default:
