@@ -525,6 +525,9 @@ function toProjectIssues(issue: z.core.$ZodIssue): ProjectIssue[] {
   if (issue.code === 'invalid_union' && !(issue as { discriminator?: string }).discriminator) {
     const last = issue.path.at(-1)
     if (last === 'start' || last === 'end') {
+      // An object end with a wrong field: report that field's own problem.
+      const inside = issue.errors.find((branch) => branch.length > 0 && branch.every((sub) => sub.path.length > 0))
+      if (inside) return inside.flatMap((sub) => toProjectIssues({ ...sub, path: [...issue.path, ...sub.path] } as z.core.$ZodIssue))
       return [{ path: formatPath(issue.path), message: 'must be "fixed" or "free" (the axial condition), or an object with axial, torsion and bending conditions' }]
     }
     // Excitations: a speed with orders, or a frequency. Report the closest alternative's own problems.
