@@ -21,7 +21,7 @@ import { bandName, excitationBands, modeKey, type ExcitationBand, type Resonance
 import type { FamilyKey } from '../model/families'
 import type { Excitation } from '../model/project'
 import { hzToRpm, rpmToHz } from '../model/units'
-import { axisStyle, baseOption, niceCeil, paletteOf, tooltipBase, type ChartBuildOptions } from './chart-common'
+import { axisStyle, baseOption, closeRuns, labelSeries, niceCeil, paletteOf, tooltipBase, type ChartBuildOptions, type ChartLabel } from './chart-common'
 import { escapeHtml, figure, signedPercent } from './chart-text'
 
 export interface InterferenceChartInput {
@@ -155,7 +155,8 @@ export function interferenceChartOption(input: InterferenceChartInput, options: 
       symbol: 'none',
       animation: false,
       lineStyle: { color: palette.modeLine, width: 1.6, type: 'solid' },
-      label: { show: true, position: 'insideEndTop', color: palette.modeLine, fontSize: 11, formatter: (p: { name?: string }) => p.name ?? '' },
+      // Named by the chart's label series (labelsOfInterference), which keeps labels apart.
+      label: { show: false },
       data: shownModes.map((m) => ({ yAxis: checkedFrequency(m), name: `Mode ${m.mode} · ${figure(checkedFrequency(m), 4)} Hz` })),
     },
   })
@@ -216,8 +217,7 @@ export function interferenceChartOption(input: InterferenceChartInput, options: 
       symbol: 'none',
       animation: false,
       lineStyle: { color: palette.frequencyLine, width: 1.6, type: 'dashed' },
-      // Below the line: above it sit the conflict marks' labels.
-      label: { show: true, position: 'insideStartBottom', color: palette.frequencyLine, fontSize: 11, formatter: (p: { name?: string }) => p.name ?? '' },
+      label: { show: false },
       data: frequencyLines,
     },
   })
@@ -239,7 +239,6 @@ export function interferenceChartOption(input: InterferenceChartInput, options: 
       silent: !options.interactive,
       lineStyle: { color: colour, width: 1.4 },
       itemStyle: { color: colour },
-      endLabel: { show: true, color: colour, fontSize: 11, formatter: () => `×${figure(order, 3)}` },
     })
   })
 
@@ -270,20 +269,11 @@ export function interferenceChartOption(input: InterferenceChartInput, options: 
     symbolSize: 13,
     z: 5,
     itemStyle: { color: palette.conflict, borderColor: palette.background, borderWidth: 1.5 },
-    label: {
-      show: true,
-      position: 'top',
-      distance: 6,
-      backgroundColor: palette.background,
-      padding: [1, 3],
-      borderRadius: 2,
-      color: palette.conflict,
-      fontSize: 11,
-      fontWeight: 600,
-      formatter: (p: { dataIndex: number }) => `mode ${marks[p.dataIndex].pair.mode}`,
-    },
+    // No text of its own: a diamond sits on its mode's labelled line, on its excitation's labelled line or band.
+    label: { show: false },
     data: marks.map((m) => [m.rpm ?? fixedMarkRpm, m.hz]),
   })
+  series.push(labelSeries(interferenceLabels(input, shownModes, orderBands, { rpmMax, hzMax, palette }), palette))
 
   const conflictText = (mark: ConflictMark) => {
     const p = mark.pair
@@ -364,6 +354,80 @@ export function interferenceChartOption(input: InterferenceChartInput, options: 
       : {}),
     series,
   }
+}
+
+/** Labels closer than this fraction of an axis are gathered into one (about 15 px on the smallest plot, 250 px, of the app). */
+export const INTERFERENCE_LABEL_GAP = 0.06
+/** Widest a label of a fixed frequency may run (px), so that it stays clear of the natural frequencies' labels at the right. */
+const FIXED_LABEL_WIDTH = 280
+
+/**
+ * The diagram's text, most important first, laid out so that labels stay apart: natural
+ * frequencies at the right end above their lines, fixed frequencies at the left end below
+ * theirs, order lines at their far end; neighbours closer than INTERFERENCE_LABEL_GAP of the
+ * axis share one label. Equal orders of different excitations draw one line and one label.
+ */
+export function interferenceLabels(
+  input: InterferenceChartInput,
+  shownModes: InterferenceChartInput['modes'],
+  orderBands: readonly ExcitationBand[],
+  frame: { rpmMax: number; hzMax: number; palette: ReturnType<typeof paletteOf> },
+): ChartLabel[] {
+  const { rpmMax, hzMax, palette } = frame
+  const labels: ChartLabel[] = []
+
+  const modes = [...shownModes].sort((a, b) => checkedFrequency(a) - checkedFrequency(b))
+  for (const run of closeRuns(modes.map((m) => checkedFrequency(m) / hzMax), INTERFERENCE_LABEL_GAP)) {
+    const members = run.map((i) => modes[i])
+    const top = members.at(-1)!
+    const text =
+      members.length === 1
+        ? `Mode ${top.mode} · ${figure(checkedFrequency(top), 4)} Hz`
+        : `Modes ${members.map((m) => m.mode).join(', ')} · ${members.map((m) => figure(checkedFrequency(m), 4)).join(', ')} Hz`
+    labels.push({ at: [rpmMax, checkedFrequency(top)], text, color: palette.modeLine, place: 'insideBottomRight', distance: 4 })
+  }
+
+  const fixed = input.excitations
+    .map((e, i) => ({ e, name: e.label?.trim() || `Excitation ${i + 1}` }))
+    .filter(({ e }) => 'hz' in e)
+    .map(({ e, name }) => {
+      const hz = (e as { hz: number | [number, number] }).hz
+      const [lo, hi] = Array.isArray(hz) ? hz : [hz, hz]
+      return { name, lo, hi, text: `${name}: ${lo === hi ? figure(lo, 4) : `${figure(lo, 4)}–${figure(hi, 4)}`} Hz` }
+    })
+    .filter((f) => f.lo <= hzMax)
+    .sort((a, b) => a.lo - b.lo)
+  for (const run of closeRuns(fixed.map((f) => f.lo / hzMax), INTERFERENCE_LABEL_GAP)) {
+    const members = run.map((i) => fixed[i])
+    labels.push({
+      at: [0, members[0].lo],
+      // One line each, in one label under the lowest line: they cannot overlap one another.
+      text: members.map((f) => f.text).join('\n'),
+      color: palette.frequencyLine,
+      place: 'insideTopLeft',
+      distance: 4,
+      maxWidth: FIXED_LABEL_WIDTH,
+    })
+  }
+
+  // One label per distinct order, at the end of its line: beyond the right edge, or under the top edge to the right of a steep line's end.
+  const orders = [...new Map(orderBands.map((b, k) => [b.order!, k])).entries()].map(([order, k]) => {
+    const end = Math.min(rpmMax, hzToRpm(hzMax) / order)
+    return { order, colour: palette.series[(k + 3) % palette.series.length], end, atTop: end < rpmMax }
+  })
+  const right = orders.filter((o) => !o.atTop).sort((a, b) => a.order - b.order)
+  for (const run of closeRuns(right.map((o) => rpmToHz(rpmMax * o.order) / hzMax), INTERFERENCE_LABEL_GAP)) {
+    const members = run.map((i) => right[i])
+    const top = members.at(-1)!
+    labels.push({ at: [rpmMax, rpmToHz(rpmMax * top.order)], text: members.map((o) => `×${figure(o.order, 3)}`).join(', '), color: top.colour, place: 'right' })
+  }
+  const atTop = orders.filter((o) => o.atTop).sort((a, b) => a.end - b.end)
+  for (const run of closeRuns(atTop.map((o) => o.end / rpmMax), INTERFERENCE_LABEL_GAP)) {
+    const members = run.map((i) => atTop[i])
+    const last = members.at(-1)!
+    labels.push({ at: [last.end, hzMax], text: members.map((o) => `×${figure(o.order, 3)}`).join(', '), color: last.colour, place: 'insideTopLeft', distance: 4 })
+  }
+  return labels
 }
 
 /**

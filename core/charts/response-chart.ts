@@ -1,16 +1,18 @@
 /**
  * Forced response: the receptance |u/F| (displacement at one point per unit harmonic force at
  * another) against frequency, on a logarithmic amplitude axis and a logarithmic or linear
- * frequency axis. Every excitation band is shaded (a single frequency is a line), every mode
- * the response is built from is marked, and the static value |H(0)| is drawn as a reference
- * where the bar has one (a bar without support has none).
+ * frequency axis. Every excitation band is shaded (a single frequency is a line) in its
+ * excitation's colour and named in the legend, every mode the response is built from is marked,
+ * and the static value |H(0)| is drawn as a reference where the bar has one (a bar without
+ * support has none). Band labels run along the top and mode labels along the foot, in as many
+ * rows as it takes to keep neighbours apart (labelRows).
  */
 import type { EChartsOption, LineSeriesOption } from 'echarts'
-import { bandName, excitationBands } from '../analysis/resonance'
+import { bandName, excitationBands, excitationLabel } from '../analysis/resonance'
 import type { Excitation } from '../model/project'
 import { displayUnit, hzToRpm, toDisplay } from '../model/units'
 import { formatScientific } from '../report/number-format'
-import { axisStyle, baseOption, paletteOf, tooltipBase, type ChartBuildOptions } from './chart-common'
+import { axisStyle, baseOption, labelRows, labelSeries, paletteOf, tooltipBase, type ChartBuildOptions, type ChartLabel } from './chart-common'
 import { escapeHtml, figure } from './chart-text'
 
 export interface ResponseChartInput {
@@ -34,6 +36,16 @@ function powerOfTen(v: number): string {
   return formatScientific(v, 1)
 }
 
+/** Labels nearer than this fraction of the frequency axis go to different rows (about 55 px on the app's 1100 px plot; a label is 15–40 px wide). */
+export const RESPONSE_LABEL_GAP = 0.05
+/** Height of a row of labels, px. */
+const LABEL_ROW = 14
+
+/** The colour of excitation `index`: the palette's series after the curve's own colour. */
+export function excitationColour(palette: ReturnType<typeof paletteOf>, index: number): string {
+  return palette.series[1 + (index % (palette.series.length - 1))]
+}
+
 export function responseChartOption(input: ResponseChartInput, options: ResponseChartOptions): EChartsOption {
   const palette = paletteOf(options)
   const axis = axisStyle(palette)
@@ -45,16 +57,61 @@ export function responseChartOption(input: ResponseChartInput, options: Response
   const fMin = points[0]?.frequencyHz ?? 0
   const fMax = points[points.length - 1]?.frequencyHz ?? 1
   const inRange = (f: number) => f >= fMin && f <= fMax
-  // In frequency order, so that neighbouring bands' labels can alternate between two rows.
+  /** Where a frequency sits along the axis, 0 at its start and 1 at its end. */
+  const along = (f: number) => (log ? Math.log(f / fMin) / Math.log(fMax / fMin) : (f - fMin) / (fMax - fMin))
+  // The amplitude axis spans whole decades, so that labels can sit on its ends.
+  const amplitudes = points.map((p) => toShown(p.amplitude)).concat(input.staticFlexibility !== null ? [toShown(input.staticFlexibility)] : [])
+  const yMin = amplitudes.length ? 10 ** Math.floor(Math.log10(Math.min(...amplitudes))) : 1e-12
+  const yMax = amplitudes.length ? 10 ** Math.ceil(Math.log10(Math.max(...amplitudes)) + 1e-9) : 1
   const bands = excitationBands(input.excitations)
     .filter((b) => b.hz[1] >= fMin && b.hz[0] <= fMax)
     .sort((a, b) => a.hz[0] - b.hz[0])
   const bandText = (lo: number, hi: number) => (lo === hi ? `${figure(lo, 4)} Hz` : `${figure(lo, 4)}–${figure(hi, 4)} Hz`)
   const shortName = (b: (typeof bands)[number]) => (b.order === null ? bandText(b.hz[0], b.hz[1]) : `×${figure(b.order, 3)}`)
-  // A range is labelled inside the plot's top, a single frequency just above it (a line's inside labels turn with the line).
-  const bandLabel = (k: number, text: string) => ({ show: true, distance: 3 + 13 * (k % 2), color: palette.frequencyLine, fontSize: 10, formatter: () => text })
+  const centre = (b: (typeof bands)[number]) => Math.min(Math.max((b.hz[0] + b.hz[1]) / 2, fMin), fMax)
+  const shownModes = input.modes.filter((m) => !m.rigidBody && inRange(m.frequencyHz))
 
-  const series: LineSeriesOption[] = [
+  // One series per excitation: its legend entry names it, its colour marks its bands and their labels.
+  const excitationSeries: LineSeriesOption[] = input.excitations.flatMap((e, index) => {
+    const own = bands.filter((b) => b.excitationIndex === index)
+    if (!own.length) return []
+    const colour = excitationColour(palette, index)
+    return [
+      {
+        type: 'line' as const,
+        name: excitationLabel(e, index),
+        data: [],
+        itemStyle: { color: colour },
+        lineStyle: { color: colour },
+        markArea: {
+          silent: true,
+          itemStyle: { color: colour, opacity: 0.16, borderColor: colour, borderWidth: 1 },
+          label: { show: false },
+          data: own.filter((b) => b.hz[1] > b.hz[0]).map((b) => [{ xAxis: Math.max(b.hz[0], fMin), name: `${bandName(b)}: ${bandText(b.hz[0], b.hz[1])}` }, { xAxis: Math.min(b.hz[1], fMax) }]),
+        },
+        markLine: {
+          silent: true,
+          symbol: 'none',
+          animation: false,
+          lineStyle: { color: colour, type: 'solid' as const, width: 1.6 },
+          label: { show: false },
+          data: own.filter((b) => b.hz[1] === b.hz[0]).map((b) => ({ xAxis: b.hz[0], name: `${bandName(b)}: ${bandText(b.hz[0], b.hz[1])}` })),
+        },
+      },
+    ]
+  })
+
+  // Band labels hang from the top edge, mode labels stand on the foot, each in rows that keep neighbours apart.
+  const labels: ChartLabel[] = []
+  const bandRows = labelRows(bands.map((b) => along(centre(b))), RESPONSE_LABEL_GAP)
+  bands.forEach((b, k) =>
+    labels.push({ at: [centre(b), yMax], text: shortName(b), color: excitationColour(palette, b.excitationIndex), place: 'bottom', distance: 4 + LABEL_ROW * bandRows[k], fontSize: 10 }),
+  )
+  const modeRows = labelRows(shownModes.map((m) => along(m.frequencyHz)), RESPONSE_LABEL_GAP)
+  shownModes.forEach((m, k) => labels.push({ at: [m.frequencyHz, yMin], text: `mode ${m.mode}`, color: palette.mutedText, place: 'top', distance: 4 + LABEL_ROW * modeRows[k], fontSize: 10 }))
+  if (input.staticFlexibility !== null) labels.push({ at: [fMin, toShown(input.staticFlexibility)], text: 'static', color: palette.mutedText, place: 'insideBottomLeft', distance: 3 })
+
+  const series: (LineSeriesOption | ReturnType<typeof labelSeries>)[] = [
     {
       type: 'line',
       name: '|u/F|',
@@ -70,7 +127,7 @@ export function responseChartOption(input: ResponseChartInput, options: Response
               symbol: 'none',
               animation: false,
               lineStyle: { color: palette.mutedText, type: 'dotted', width: 1.2 },
-              label: { show: true, position: 'insideStartTop', color: palette.mutedText, fontSize: 11, formatter: () => 'static' },
+              label: { show: false },
               // A line between two points: ECharts does not place a bare numeric yAxis level on a log axis.
               data: [
                 [
@@ -82,30 +139,7 @@ export function responseChartOption(input: ResponseChartInput, options: Response
           }
         : {}),
     },
-    {
-      type: 'line',
-      name: 'Excitation bands',
-      data: [],
-      itemStyle: { color: palette.frequencyLine },
-      markArea: {
-        silent: true,
-        itemStyle: { color: palette.frequencyBand, borderColor: palette.frequencyLine, borderWidth: 1 },
-        data: bands
-          .map((b, k) => ({ b, k }))
-          .filter(({ b }) => b.hz[1] > b.hz[0])
-          .map(({ b, k }) => [{ xAxis: Math.max(b.hz[0], fMin), name: `${bandName(b)}: ${bandText(b.hz[0], b.hz[1])}`, label: { ...bandLabel(k, shortName(b)), position: 'insideTop' as const } }, { xAxis: Math.min(b.hz[1], fMax) }]),
-      },
-      markLine: {
-        silent: true,
-        symbol: 'none',
-        animation: false,
-        lineStyle: { color: palette.frequencyLine, type: 'solid', width: 1.6 },
-        data: bands
-          .map((b, k) => ({ b, k }))
-          .filter(({ b }) => b.hz[1] === b.hz[0])
-          .map(({ b, k }) => ({ xAxis: b.hz[0], name: `${bandName(b)}: ${bandText(b.hz[0], b.hz[1])}`, label: { ...bandLabel(k, shortName(b)), position: 'end' as const } })),
-      },
-    },
+    ...excitationSeries,
     {
       type: 'line',
       name: 'Modes',
@@ -116,24 +150,23 @@ export function responseChartOption(input: ResponseChartInput, options: Response
         symbol: 'none',
         animation: false,
         lineStyle: { color: palette.boundaryLine, type: 'dashed', width: 1 },
-        // Along the line, at its foot: clear of the band labels at the top and of the axis labels below.
-        label: { show: true, position: 'insideStartTop', color: palette.mutedText, fontSize: 10 },
-        data: input.modes
-          .filter((m) => !m.rigidBody && inRange(m.frequencyHz))
-          .map((m) => ({ xAxis: m.frequencyHz, name: `Mode ${m.mode}`, label: { formatter: () => `mode ${m.mode}` } })),
+        label: { show: false },
+        data: shownModes.map((m) => ({ xAxis: m.frequencyHz, name: `Mode ${m.mode}` })),
       },
     },
+    labelSeries(labels, palette),
   ]
 
   const top = options.title ? 62 : 40
   return {
     ...baseOption(options),
     legend: {
+      type: options.interactive ? 'scroll' : 'plain',
       top: options.title ? 28 : 4,
       left: 'center',
       textStyle: { color: palette.text },
       inactiveColor: palette.axisLine,
-      data: ['|u/F|', 'Excitation bands', 'Modes'],
+      data: ['|u/F|', ...excitationSeries.map((x) => x.name as string), 'Modes'],
     },
     grid: { left: 84, right: 28, top: top + 14, bottom: 46 },
     xAxis: {
@@ -151,6 +184,8 @@ export function responseChartOption(input: ResponseChartInput, options: Response
     yAxis: {
       type: 'log',
       logBase: 10,
+      min: yMin,
+      max: yMax,
       name: `|u/F| (${unit.symbol})`,
       nameLocation: 'middle',
       nameGap: 66,

@@ -11,6 +11,7 @@ import {
   TitleComponent,
   TooltipComponent,
 } from 'echarts/components'
+import { LabelLayout } from 'echarts/features'
 import { SVGRenderer } from 'echarts/renderers'
 
 // SVG keeps text crisp at any zoom and leaves the charts inspectable in the page.
@@ -26,4 +27,6 @@ use([
   MarkLineComponent,
   GraphicComponent,
   TitleComponent,
+  // labelLayout { hideOverlap }: the charts' last guard against labels printed over each other.
+  LabelLayout,
 ])

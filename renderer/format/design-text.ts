@@ -6,7 +6,8 @@
  */
 import type { DesignParameter } from '../../core/analysis/design-parameters'
 import type { Sensitivity } from '../../core/analysis/sensitivity'
-import { displayUnit, fromDisplay, toDisplay, type QuantityKind, type UnitSystem } from '../../core/model/units'
+import type { QuantityKind, UnitSystem } from '../../core/model/units'
+import { fromScreen, screenUnit, toScreen } from './quantity'
 import { formatFigure, formatScientific, MINUS } from '../../core/report/number-format'
 
 /** Segment lengths step in the section unit (mm, in): 1 % of a rod's length reads as whole millimetres. */
@@ -36,8 +37,8 @@ export interface SensitivityStep {
 /** About 1 % of the parameter's value, a round number in the unit it is shown in. */
 export function sensitivityStep(parameter: Pick<DesignParameter, 'quantity' | 'value'>, units: UnitSystem): SensitivityStep {
   const kind = stepKind(parameter.quantity)
-  const shownStep = roundStep(0.01 * Math.abs(toDisplay(units, kind, parameter.value)))
-  return { stepSI: fromDisplay(units, kind, shownStep), kind, text: `${formatFigure(shownStep, 1)} ${displayUnit(units, kind).symbol}` }
+  const shownStep = roundStep(0.01 * Math.abs(toScreen(units, kind, parameter.value)))
+  return { stepSI: fromScreen(units, kind, shownStep), kind, text: `${formatFigure(shownStep, 1)} ${screenUnit(units, kind).symbol}` }
 }
 
 export function capitalised(text: string): string {
@@ -75,11 +76,11 @@ export function sensitivitySentence(s: Pick<Sensitivity, 'mode' | 'derivative' |
 
 /** df/dp per unit of the step: "−21.64" (Hz per mm, with derivativeUnit). */
 export function derivativeText(s: Pick<Sensitivity, 'derivative'>, parameter: Pick<DesignParameter, 'quantity'>, units: UnitSystem): string {
-  return formatFigure(s.derivative * displayUnit(units, stepKind(parameter.quantity)).toSI, 4)
+  return formatFigure(s.derivative * screenUnit(units, stepKind(parameter.quantity)).toSI, 4)
 }
 
 export function derivativeUnit(parameter: Pick<DesignParameter, 'quantity'>, units: UnitSystem): string {
-  return `Hz/${displayUnit(units, stepKind(parameter.quantity)).symbol}`
+  return `Hz/${screenUnit(units, stepKind(parameter.quantity)).symbol}`
 }
 
 /** (p/f) df/dp with three decimals and a true minus sign: "−0.456". */
@@ -96,17 +97,17 @@ export function rankedSensitivities<T extends Pick<Sensitivity, 'mode' | 'relati
 
 /** |u/F| in the display unit of receptance (m/N or in/lbf), as a power of ten. */
 export function receptanceText(metresPerNewton: number, units: UnitSystem): string {
-  return formatScientific(toDisplay(units, 'receptance', metresPerNewton), 3)
+  return formatScientific(toScreen(units, 'receptance', metresPerNewton), 3)
 }
 
 /** The unit of stress per unit force: MPa/N or psi/lbf. */
 export function stressPerForceUnit(units: UnitSystem): string {
-  return `${displayUnit(units, 'stress').symbol}/${displayUnit(units, 'force').symbol}`
+  return `${screenUnit(units, 'stress').symbol}/${screenUnit(units, 'force').symbol}`
 }
 
 /** Pa per N → MPa per N, or psi per lbf. */
 export function stressPerForceValue(pascalPerNewton: number, units: UnitSystem): number {
-  return (pascalPerNewton * displayUnit(units, 'force').toSI) / displayUnit(units, 'stress').toSI
+  return (pascalPerNewton * screenUnit(units, 'force').toSI) / screenUnit(units, 'stress').toSI
 }
 
 export function stressPerForceText(pascalPerNewton: number, units: UnitSystem): string {

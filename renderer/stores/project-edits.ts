@@ -156,12 +156,25 @@ export function removeMaterial(project: Project, index: number): void {
 
 export type AttachmentList = 'masses' | 'springs'
 
-/** A new attachment at the free end (or the bar's end), a plausible size to edit. */
-export function addAttachment(project: Project, list: AttachmentList): void {
+/** What a new attachment row starts from: a place (the free end, else the middle of the bar) and a label; its size is the user's to give. */
+export interface AttachmentStart {
+  readonly at: number
+  readonly label: string
+}
+
+export function attachmentStart(project: Project, list: AttachmentList, pending = 0): AttachmentStart {
   const length = safe(() => totalLength(project.segments))
-  const at = project.ends.end.axial === 'free' || !Number.isFinite(length) ? (Number.isFinite(length) ? length : 0) : length / 2
-  if (list === 'masses') project.masses.push({ at, mass: 1, label: `Mass ${project.masses.length + 1}` })
-  else project.springs.push({ at, stiffness: 1e7, label: `Spring ${project.springs.length + 1}` })
+  const at = Number.isFinite(length) ? (project.ends.end.axial === 'free' ? length : round(length / 2)) : 0
+  return { at, label: `${list === 'masses' ? 'Mass' : 'Spring'} ${project[list].length + pending + 1}` }
+}
+
+/** A confirmed attachment joins the part (a draft row only takes part from here on). */
+export function addAttachment(project: Project, list: AttachmentList, item: { at: Typed; value: Typed; label: string }): void {
+  const entry: Record<string, unknown> = {}
+  assign(entry, 'at', item.at)
+  assign(entry, list === 'masses' ? 'mass' : 'stiffness', item.value)
+  if (item.label.trim() !== '') entry.label = item.label
+  ;(project[list] as unknown as Record<string, unknown>[]).push(entry)
 }
 
 export function updateAttachment(project: Project, list: AttachmentList, index: number, key: 'at' | 'mass' | 'stiffness' | 'label', value: Typed | string): void {
@@ -189,42 +202,64 @@ export function setMeshMode(project: Project, mode: MeshMode): void {
   }
 }
 
-/** A common speed for presets when the project has none: a four-pole motor on a 50 Hz supply (common practice, no source). */
-export const DEFAULT_RUNNING_SPEED_RPM = 1480
-
 export type ExcitationPreset = 'running-1x' | 'running-2x' | 'twice-line-50' | 'twice-line-60' | 'blade-pass' | 'gear-mesh'
 
-export const EXCITATION_PRESETS: readonly { id: ExcitationPreset; title: string }[] = [
-  { id: 'running-1x', title: '1× running speed' },
-  { id: 'running-2x', title: '2× running speed' },
-  { id: 'twice-line-50', title: 'Twice line frequency, 100 Hz' },
-  { id: 'twice-line-60', title: 'Twice line frequency, 120 Hz' },
-  { id: 'blade-pass', title: 'Blade or vane pass' },
-  { id: 'gear-mesh', title: 'Gear mesh' },
-]
-
-/** The project's running speed, for presets: its first speed excitation, else DEFAULT_RUNNING_SPEED_RPM. */
-export function runningSpeed(project: Project): number | [number, number] {
-  for (const e of project.excitations) if ('rpm' in e) return structuredClone(e.rpm)
-  return DEFAULT_RUNNING_SPEED_RPM
+export interface ExcitationPresetInfo {
+  readonly id: ExcitationPreset
+  readonly title: string
+  /** The label the new excitation starts with. */
+  readonly label: string
+  /** A machine's speed must be asked for (a fixed frequency needs nothing). */
+  readonly needsSpeed: boolean
+  /** The order is a count to ask for (blades or vanes, teeth), in these words; else the order is fixed. */
+  readonly count?: string
+  readonly order?: number
 }
 
-export function presetExcitation(project: Project, preset: ExcitationPreset): Excitation {
-  const rpm = runningSpeed(project)
-  switch (preset) {
-    case 'running-1x':
-      return { label: 'Running speed 1×', rpm, orders: [1] }
-    case 'running-2x':
-      return { label: 'Running speed 2×', rpm, orders: [2] }
-    case 'twice-line-50':
-      return { label: 'Twice line frequency (50 Hz supply)', hz: 100 }
-    case 'twice-line-60':
-      return { label: 'Twice line frequency (60 Hz supply)', hz: 120 }
-    case 'blade-pass':
-      return { label: 'Blade or vane pass', rpm, orders: [6] }
-    case 'gear-mesh':
-      return { label: 'Gear mesh', rpm, orders: [20] }
-  }
+export const EXCITATION_PRESETS: readonly ExcitationPresetInfo[] = [
+  { id: 'running-1x', title: '1× running speed', label: 'Running speed 1×', needsSpeed: true, order: 1 },
+  { id: 'running-2x', title: '2× running speed', label: 'Running speed 2×', needsSpeed: true, order: 2 },
+  { id: 'twice-line-50', title: 'Twice line frequency, 100 Hz', label: 'Twice line frequency (50 Hz supply)', needsSpeed: false },
+  { id: 'twice-line-60', title: 'Twice line frequency, 120 Hz', label: 'Twice line frequency (60 Hz supply)', needsSpeed: false },
+  { id: 'blade-pass', title: 'Blade or vane pass', label: 'Blade or vane pass', needsSpeed: true, count: 'blades or vanes' },
+  { id: 'gear-mesh', title: 'Gear mesh', label: 'Gear mesh', needsSpeed: true, count: 'teeth' },
+]
+
+export function presetInfo(preset: ExcitationPreset): ExcitationPresetInfo {
+  return EXCITATION_PRESETS.find((p) => p.id === preset)!
+}
+
+/** What the user gives a speed preset: the machine's speed (single or a range, rpm), the count for a pass frequency, a label. */
+export interface PresetAnswers {
+  readonly rpm?: number | [number, number]
+  readonly count?: number
+  readonly label?: string
+}
+
+/** The excitation a preset adds. A speed preset takes the speed the user gave, never one copied from another excitation. */
+export function presetExcitation(preset: ExcitationPreset, answers: PresetAnswers = {}): Excitation {
+  const info = presetInfo(preset)
+  const label = answers.label?.trim() || info.label
+  if (preset === 'twice-line-50') return { label, hz: 100 }
+  if (preset === 'twice-line-60') return { label, hz: 120 }
+  if (answers.rpm === undefined) throw new Error(`the ${info.title} preset needs the machine's speed`)
+  const order = info.order ?? answers.count
+  if (order === undefined) throw new Error(`the ${info.title} preset needs the number of ${info.count}`)
+  const rpm: number | [number, number] = Array.isArray(answers.rpm) ? [answers.rpm[0], answers.rpm[1]] : answers.rpm
+  return { label, rpm, orders: [order] }
+}
+
+/** The distinct speeds (single or range, rpm) of the project's excitations, with the label of the first that has each: offered, never assumed. */
+export function projectSpeeds(project: Project): { rpm: number | [number, number]; label: string }[] {
+  const out: { rpm: number | [number, number]; label: string }[] = []
+  project.excitations.forEach((e, i) => {
+    if (!('rpm' in e)) return
+    const values = Array.isArray(e.rpm) ? e.rpm : [e.rpm]
+    if (!values.every((v) => typeof v === 'number' && Number.isFinite(v) && v > 0)) return
+    if (out.some((s) => JSON.stringify(s.rpm) === JSON.stringify(e.rpm))) return
+    out.push({ rpm: Array.isArray(e.rpm) ? [e.rpm[0], e.rpm[1]] : e.rpm, label: e.label?.trim() || `Excitation ${i + 1}` })
+  })
+  return out
 }
 
 export function addExcitation(project: Project, excitation: Excitation): void {

@@ -35,6 +35,8 @@ export const useProjectStore = defineStore('project', () => {
   const redoStack = shallowRef<string[]>([])
   /** JSON of the draft as last opened or saved, for the dirty flag. */
   const savedText = ref(JSON.stringify(draft.value))
+  /** Counts the documents loaded (New, Open, the demo, a restored recovery): what belongs to the previous one can close. */
+  const loads = ref(0)
 
   // The draft as JSON: NaN becomes null and emptied fields vanish, exactly as a file would hold them.
   const draftText = computed(() => JSON.stringify(draft.value))
@@ -48,7 +50,9 @@ export const useProjectStore = defineStore('project', () => {
     for (const issue of issues.value) map.set(issue.path, map.has(issue.path) ? `${map.get(issue.path)}; ${issue.message}` : issue.message)
     return map
   })
-  const dirty = computed(() => draftText.value !== savedText.value)
+  /** Rows being typed outside the draft (new masses and springs not yet confirmed): unsaved work too. */
+  const pendingRows = ref(0)
+  const dirty = computed(() => draftText.value !== savedText.value || pendingRows.value > 0)
   const units = computed<UnitSystem>(() => draft.value.units)
   const canUndo = computed(() => undoStack.value.length > 0)
   const canRedo = computed(() => redoStack.value.length > 0)
@@ -108,6 +112,7 @@ export const useProjectStore = defineStore('project', () => {
     undoStack.value = []
     redoStack.value = []
     savedText.value = source.dirty ? '' : draftText.value
+    loads.value++
   }
 
   /** The document is now the file at `path`, holding `savedDraft` (the draft as it was written; edits since stay unsaved). */
@@ -138,6 +143,8 @@ export const useProjectStore = defineStore('project', () => {
     canUndo,
     canRedo,
     documentTitle,
+    loads,
+    pendingRows,
     issueAt,
     issuesUnder,
     edit,

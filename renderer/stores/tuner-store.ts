@@ -104,6 +104,19 @@ export const useTunerStore = defineStore('tuner', () => {
     else typedMax.value = value
   }
 
+  /** Searches a parameter over a suggested range (kept where a tube still has a wall), for the best separation. */
+  async function searchOver(path: string, range: readonly [number, number]): Promise<void> {
+    const model = project.validProject
+    const p = parameters.value.find((q) => q.path === path)
+    if (!model || !p) return
+    const [lowest, highest] = wallLimits(model, p) ?? [0, Infinity]
+    parameterPath.value = path
+    typedMin.value = Math.max(range[0], lowest)
+    typedMax.value = Math.min(range[1], highest)
+    goal.value = 'separation'
+    await run()
+  }
+
   async function run(): Promise<void> {
     const model = project.validProject
     const text = currentText.value
@@ -167,6 +180,7 @@ export const useTunerStore = defineStore('tuner', () => {
     problems,
     choose,
     setBound,
+    searchOver,
     run,
     cancel,
     accept,

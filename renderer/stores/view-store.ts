@@ -3,6 +3,7 @@ import { defineStore } from 'pinia'
 import { computed, ref, watch } from 'vue'
 import type { ConvergenceAxis } from '../../core/charts/convergence-chart'
 import type { ModeShapeLower } from '../../core/charts/mode-shape-chart'
+import { useProjectStore } from './project-store'
 
 export type ViewName = 'part' | 'modes' | 'resonance' | 'convergence' | 'design'
 export type ThemePreference = 'system' | 'light' | 'dark'
@@ -61,6 +62,12 @@ export const useViewStore = defineStore('view', () => {
   const sensitivityMode = ref<number | null>(null)
   const warningsOpen = ref(false)
   const cautionsOpen = ref(false)
+  // The warnings panel belongs to the moment it was opened: another view or another document closes it.
+  watch(activeView, () => (warningsOpen.value = false))
+  watch(
+    () => useProjectStore().loads,
+    () => (warningsOpen.value = false),
+  )
 
   function cycleTheme(): void {
     const order: ThemePreference[] = ['system', 'light', 'dark']

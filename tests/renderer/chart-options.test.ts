@@ -5,9 +5,13 @@
  * bar's first mode shape sin(πx/2L) (S. S. Rao, Mechanical Vibrations, longitudinal
  * vibration of bars, from memory); convergence orders 2 and 4 of 2- and 3-node elements
  * (T. J. R. Hughes, The Finite Element Method, eigenvalue chapter, from memory); and,
- * for the diagram, consistency with the resonance check of core/analysis/resonance.ts.
+ * for the diagram, consistency with the resonance check of core/analysis/resonance.ts. The
+ * label layout rule (this repository's own): every text of the interference diagram and the
+ * response chart is a label of one series with ECharts' hideOverlap, and the builders keep
+ * neighbours apart themselves (rows, or one label for a run of near neighbours).
  */
 import { describe, expect, it } from 'vitest'
+import { test as propertyTest, fc } from '@fast-check/vitest'
 import type { LineSeriesOption, ScatterSeriesOption } from 'echarts'
 import { analyseProject } from '../../core/analysis/modal-analysis'
 import { convergenceStudy } from '../../core/analysis/convergence'
@@ -15,7 +19,10 @@ import { separationFromBand, statusOf, type ResonancePair } from '../../core/ana
 import { readProjectDocument, readProjectText } from '../../core/model/project-schema'
 import type { Project } from '../../core/model/project'
 import {
+  closeRuns,
   convergenceChartOption,
+  excitationColour,
+  INTERFERENCE_LABEL_GAP,
   interferenceChartInput,
   interferenceChartOption,
   interferenceConflictMarks,
@@ -23,9 +30,16 @@ import {
   modeShapeChartData,
   modeShapeChartOption,
   observedOrderText,
+  labelRows,
+  LABEL_SERIES,
   pairSentence,
+  RESPONSE_LABEL_GAP,
+  responseChartOption,
 } from '../../core/charts'
 import { DEMO_TEXT } from './renderer-helpers'
+import { LIGHT_CHART_PALETTE } from '../../core/charts/chart-palette'
+import { resonancePairs } from '../../core/analysis/resonance'
+import type { Excitation } from '../../core/model/project'
 
 function project(doc: Record<string, unknown>): Project {
   const read = readProjectDocument({ format: 'rodwave', version: 1, ends: { start: 'fixed', end: 'free' }, ...doc })
@@ -188,5 +202,121 @@ describe('convergence chart', () => {
     // The error axis carries log10 |error|.
     const first = (option.series as LineSeriesOption[])[0].data as number[][]
     expect(10 ** first[0][1]).toBeCloseTo(Math.abs(study.series[0].points[0].errors[0]!), 12)
+  })
+})
+
+type AnyLabelled = { name?: string; type?: string; label?: { show?: boolean }; endLabel?: { show?: boolean }; markLine?: { label?: { show?: boolean } }; markArea?: { label?: { show?: boolean } }; labelLayout?: unknown; data?: unknown }
+interface LabelDatum {
+  value: [number, number]
+  label: { position: string; distance: number; color: string; formatter: () => string }
+}
+const labelsOf = (option: { series?: unknown }) => (option.series as AnyLabelled[]).find((x) => x.name === LABEL_SERIES)!.data as LabelDatum[]
+
+/** No series shows text except the label series, which hides any label that would still overlap (hideOverlap). */
+function expectOneLabelSeries(option: { series?: unknown }): void {
+  for (const x of option.series as AnyLabelled[]) {
+    if (x.name === LABEL_SERIES) {
+      expect(x.labelLayout).toEqual({ hideOverlap: true })
+      continue
+    }
+    expect(x.label?.show ?? false, `${x.name}: series label`).toBe(false)
+    expect(x.endLabel?.show ?? false, `${x.name}: end label`).toBe(false)
+    expect(x.markLine?.label?.show ?? false, `${x.name}: mark line label`).toBe(false)
+    expect(x.markArea?.label?.show ?? false, `${x.name}: mark area label`).toBe(false)
+  }
+}
+
+describe('chart labels never collide', () => {
+  propertyTest.prop([fc.array(fc.integer({ min: 0, max: 1000 }).map((v) => v / 1000), { maxLength: 30 }), fc.double({ min: 0.01, max: 0.2, noNaN: true })], { seed: 16 })(
+    'labelRows never puts two labels nearer than the gap in one row',
+    (positions, gap) => {
+      const rows = labelRows(positions, gap)
+      for (let i = 0; i < positions.length; i++) {
+        for (let j = i + 1; j < positions.length; j++) {
+          if (rows[i] === rows[j]) expect(Math.abs(positions[i] - positions[j]), `labels ${i} and ${j} share row ${rows[i]}`).toBeGreaterThanOrEqual(gap)
+        }
+      }
+      // Labels far apart all stay in the first row.
+      if (positions.length > 0 && positions.every((p, i) => positions.every((q, j) => i === j || Math.abs(p - q) >= gap))) expect(new Set(rows)).toEqual(new Set([0]))
+    },
+  )
+
+  it('closeRuns chains neighbours: each joins the run of the one just below it', () => {
+    expect(closeRuns([0.1, 0.5, 0.53, 0.9], 0.05)).toEqual([[0], [1, 2], [3]])
+    // 0.06 is within the gap of 0.04 (not of 0): one run, so no two labels end up nearer than the gap.
+    expect(closeRuns([0, 0.04, 0.06], 0.05)).toEqual([[0, 1, 2]])
+  })
+
+  propertyTest.prop([fc.array(fc.integer({ min: 0, max: 1000 }).map((v) => v / 1000), { maxLength: 30 }), fc.double({ min: 0.01, max: 0.2, noNaN: true })], { seed: 17 })(
+    'closeRuns gathers neighbours nearer than the gap, and leaves runs at least the gap apart',
+    (unsorted, gap) => {
+      const positions = [...unsorted].sort((a, b) => a - b)
+      const runs = closeRuns(positions, gap)
+      expect(runs.flat()).toEqual(positions.map((_, i) => i))
+      for (const run of runs) for (let k = 1; k < run.length; k++) expect(positions[run[k]] - positions[run[k - 1]]).toBeLessThan(gap)
+      for (let r = 1; r < runs.length; r++) expect(positions[runs[r][0]] - positions[runs[r - 1].at(-1)!]).toBeGreaterThanOrEqual(gap)
+    },
+  )
+
+  it('interference diagram: every text is a label of one series, close modes share one label, equal orders one label', () => {
+    const modes = [
+      { mode: 1, motion: 'axial' as const, plane: null, family: 'axial' as const, frequencyHz: 100, rigidBody: false, referenceHz: 100 },
+      { mode: 2, motion: 'axial' as const, plane: null, family: 'axial' as const, frequencyHz: 103, rigidBody: false, referenceHz: 103 },
+      { mode: 3, motion: 'axial' as const, plane: null, family: 'axial' as const, frequencyHz: 300, rigidBody: false, referenceHz: 300 },
+    ]
+    const excitations: Excitation[] = [
+      { label: 'Pump A', rpm: [2960, 2990], orders: [1, 2] },
+      { label: 'Pump B', rpm: 1480, orders: [2] },
+      { label: 'Hum', hz: 100 },
+      { label: 'Hum 60', hz: 120 },
+    ]
+    const resonance = resonancePairs(modes, { excitations, margin: 0.1 })
+    const option = interferenceChartOption({ modes, excitations, margin: 0.1, resonance }, { interactive: true, units: 'SI', hzMax: 500 })
+    expectOneLabelSeries(option)
+    const texts = labelsOf(option).map((l) => l.label.formatter())
+    // Modes 1 and 2 are 3 Hz apart on a 500 Hz axis (less than the gap): one label for both.
+    expect(texts).toContain('Modes 1, 2 · 100, 103 Hz')
+    expect(texts).toContain('Mode 3 · 300 Hz')
+    // 100 Hz and 120 Hz are 4 % of the axis apart: one label, a line each.
+    expect(texts).toContain('Hum: 100 Hz\nHum 60: 120 Hz')
+    // Order 2 of both pumps is one line and one label.
+    expect(texts.filter((t) => t === '×2')).toHaveLength(1)
+    // Labels of the natural frequencies stand at the right edge, at least the gap apart.
+    const modeAnchors = labelsOf(option)
+      .filter((l) => l.label.formatter().startsWith('Mode'))
+      .map((l) => l.value[1])
+      .sort((a, b) => a - b)
+    for (let i = 1; i < modeAnchors.length; i++) expect(modeAnchors[i] - modeAnchors[i - 1]).toBeGreaterThanOrEqual(INTERFERENCE_LABEL_GAP * 500)
+    // The conflict diamonds carry no text of their own.
+    const conflicts = (option.series as AnyLabelled[]).find((x) => x.name === 'Conflicts')!
+    expect(conflicts.label?.show).toBe(false)
+  })
+
+  it('response chart: every band is named by its excitation in the legend and labelled in its colour, near neighbours in different rows', () => {
+    const excitations = [
+      { label: 'Condensate pump', rpm: [2960, 2990] as [number, number], orders: [1, 2, 7] },
+      { label: 'Motor hum', hz: 100 },
+    ]
+    const points = [5, 10, 100, 1000, 5200].map((f) => ({ frequencyHz: f, amplitude: 1e-8 }))
+    const modes = [2660.8, 3130.5].map((f, i) => ({ mode: i + 4, frequencyHz: f, rigidBody: false }))
+    const option = responseChartOption({ points, modes, excitations, staticFlexibility: 1e-8 }, { interactive: true, units: 'SI' })
+    expectOneLabelSeries(option)
+    const legend = (option.legend as { data: string[] }).data
+    expect(legend).toEqual(['|u/F|', 'Condensate pump', 'Motor hum', 'Modes'])
+    const labels = labelsOf(option)
+    const named = (text: string) => labels.find((l) => l.label.formatter() === text)!
+    for (const [text, excitation] of [['×1', 0], ['×2', 0], ['×7', 0], ['100 Hz', 1]] as const) {
+      expect(named(text), text).toBeDefined()
+      expect(named(text).label.color, text).toBe(excitationColour(LIGHT_CHART_PALETTE, excitation))
+      const series = (option.series as (AnyLabelled & { itemStyle?: { color?: string } })[]).find((x) => x.name === excitations[excitation].label)!
+      expect(series.itemStyle?.color).toBe(named(text).label.color)
+    }
+    // ×2 (98.7–99.7 Hz) and 100 Hz sit closer than the gap on the axis: different rows, so different distances from the top.
+    const along = (f: number) => Math.log(f / 5) / Math.log(5200 / 5)
+    expect(Math.abs(along(100) - along((2 * 2975) / 60))).toBeLessThan(RESPONSE_LABEL_GAP)
+    expect(named('×2').label.distance).not.toBe(named('100 Hz').label.distance)
+    // Modes 4 and 5, 0.024 of the axis apart, likewise.
+    expect(Math.abs(along(3130.5) - along(2660.8))).toBeLessThan(RESPONSE_LABEL_GAP)
+    expect(named('mode 4').label.distance).not.toBe(named('mode 5').label.distance)
   })
 })

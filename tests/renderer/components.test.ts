@@ -61,7 +61,8 @@ describe('resonance table', () => {
   it('marks the closest pair and can show conflicts only', async () => {
     const analysis = analyseProject(demo())
     const closest = [...analysis.resonance].sort((a, b) => Math.abs(a.separation) - Math.abs(b.separation))[0]
-    const wrapper = mount(ResonanceTable, { props: { pairs: analysis.resonance, closest, conflictsOnly: false } })
+    const exactModes = new Set(analysis.modes.filter((m) => m.referenceHz !== null).map((m) => m.mode))
+    const wrapper = mount(ResonanceTable, { props: { pairs: analysis.resonance, closest, conflictsOnly: false, exactModes } })
     expect(wrapper.findAll('tbody tr')).toHaveLength(analysis.resonance.length)
     const row = wrapper.get('[data-testid="closest-pair"]')
     expect(row.classes()).toContain('closest')
@@ -107,6 +108,19 @@ describe('the window', () => {
     for (const words of ['Linear elastic', 'Small displacements', 'Axial motion only', 'No damping', 'impact test', 'local codes and licensed engineering practice']) {
       expect(cautions).toContain(words)
     }
+  })
+
+  it('closes the warnings panel with Escape and when another view is chosen', async () => {
+    wrapper = await mountApp()
+    await wrapper.get('[data-testid="warnings-button"]').trigger('click')
+    expect(wrapper.find('[data-testid="warnings-panel"]').exists()).toBe(true)
+    document.dispatchEvent(new KeyboardEvent('keydown', { key: 'Escape', bubbles: true }))
+    await settle(1)
+    expect(wrapper.find('[data-testid="warnings-panel"]').exists()).toBe(false)
+    await wrapper.get('[data-testid="warnings-button"]').trigger('click')
+    await wrapper.get('[data-testid="view-resonance"]').trigger('click')
+    await settle(1)
+    expect(wrapper.find('[data-testid="warnings-panel"]').exists()).toBe(false)
   })
 
   it('re-solves an edited length and undoes it with Ctrl+Z', async () => {

@@ -46,15 +46,17 @@ describe('forced-response chart', () => {
     expect((seriesOf(option('SI', 'linear')).find((s) => s.name === '|u/F|')!.data as number[][])[0]).toEqual([0, 2e-8])
   })
 
-  it('shades every excitation band in range, draws a single frequency as a line and marks the modes in range', () => {
+  it('shades every excitation band in range in its excitation’s series, draws a single frequency as a line and marks the modes in range', () => {
     const s = seriesOf(option('SI'))
-    const bands = s.find((x) => x.name === 'Excitation bands')!
-    const areas = bands.markArea!.data as [{ xAxis: number }, { xAxis: number }][]
+    const pump = s.find((x) => x.name === 'Pump')!
+    const areas = pump.markArea!.data as [{ xAxis: number }, { xAxis: number }][]
     expect(areas.map(([a, b]) => [a.xAxis, b.xAxis])).toEqual([
       [2960 / 60, 2990 / 60],
       [(2 * 2960) / 60, (2 * 2990) / 60],
     ])
-    expect((bands.markLine!.data as { xAxis: number }[]).map((l) => l.xAxis)).toEqual([100])
+    expect((s.find((x) => x.name === 'Hum')!.markLine!.data as { xAxis: number }[]).map((l) => l.xAxis)).toEqual([100])
+    // A band beyond the plotted range has no series and no legend entry.
+    expect(s.find((x) => x.name === 'Far away')).toBeUndefined()
     const marked = (s.find((x) => x.name === 'Modes')!.markLine!.data as { xAxis: number }[]).map((l) => l.xAxis)
     expect(marked).toEqual([106, 750])
   })

@@ -154,12 +154,23 @@ describe('project store', () => {
     expect(store.draft.materials).toHaveLength(1)
   })
 
-  it('adds presets that take the project’s running speed', () => {
+  it('adds a speed preset at the speed the user gives, never one copied from another excitation', () => {
     const store = useProjectStore()
-    store.edit((p) => edits.addExcitation(p, edits.presetExcitation(p, 'running-2x')))
-    expect(store.draft.excitations.at(-1)).toEqual({ label: 'Running speed 2×', rpm: [2960, 2990], orders: [2] })
-    store.edit((p) => edits.addExcitation(p, edits.presetExcitation(p, 'twice-line-60')))
+    // The demo already has a 2960–2990 rpm pump: a new running-speed excitation must not inherit it.
+    expect(() => edits.presetExcitation('running-1x')).toThrow(/speed/)
+    store.edit((p) => edits.addExcitation(p, edits.presetExcitation('running-1x', { rpm: 1480 })))
+    expect(store.draft.excitations.at(-1)).toEqual({ label: 'Running speed 1×', rpm: 1480, orders: [1] })
+    store.edit((p) => edits.addExcitation(p, edits.presetExcitation('running-2x', { rpm: [1450, 1490], label: 'Fan' })))
+    expect(store.draft.excitations.at(-1)).toEqual({ label: 'Fan', rpm: [1450, 1490], orders: [2] })
+    // Blade pass and gear mesh ask for their count.
+    expect(() => edits.presetExcitation('blade-pass', { rpm: 1480 })).toThrow(/blades or vanes/)
+    store.edit((p) => edits.addExcitation(p, edits.presetExcitation('gear-mesh', { rpm: 1480, count: 23 })))
+    expect(store.draft.excitations.at(-1)).toEqual({ label: 'Gear mesh', rpm: 1480, orders: [23] })
+    store.edit((p) => edits.addExcitation(p, edits.presetExcitation('twice-line-60')))
     expect(store.draft.excitations.at(-1)).toEqual({ label: 'Twice line frequency (60 Hz supply)', hz: 120 })
+    expect(store.issues).toEqual([])
+    // The project's speeds are offered, each once.
+    expect(edits.projectSpeeds(store.draft).map((s) => s.rpm)).toEqual([[2960, 2990], 1480, [1450, 1490]])
     store.edit((p) => edits.setExcitationOrders(p, 0, edits.parseOrders('1, x, 3')))
     expect(store.issueAt('excitations[0].orders[1]')).toBeDefined()
   })

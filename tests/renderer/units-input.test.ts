@@ -3,12 +3,15 @@
  * Values typed in US customary units are stored as SI with the exact factors of NIST
  * Special Publication 811 (2008), appendix B: 1 in = 0.0254 m, 1 lb = 0.453 592 37 kg,
  * 1 lbf = 4.448 221 615 260 5 N, hence 1 psi = 6 894.757 293 168 Pa and
- * 1 lbf/in = 175.126 835 246 5 N/m. Shown values round-trip through the fields.
+ * 1 lbf/in = 175.126 835 246 5 N/m. Shown values round-trip through the fields. A US modulus is
+ * shown in Msi (10⁶ psi), the trade's usual form (common practice, no source). Decimal marks
+ * follow the locale (Intl.NumberFormat, ECMA-402): a decimal comma where the locale writes one,
+ * and a mark that could be a digit-group separator is never guessed.
  */
 import { describe, expect, it } from 'vitest'
 import { test as propertyTest, fc } from '@fast-check/vitest'
 import { mount } from '@vue/test-utils'
-import { fieldValue, parseTyped, typedToSI } from '../../renderer/format/quantity'
+import { BROWSER_SEPARATORS, fieldValue, localeSeparators, parseTyped, shown, typedProblem, typedToSI, unitSymbol } from '../../renderer/format/quantity'
 import type { QuantityKind, UnitSystem } from '../../core/model/units'
 import InputQuantity from '../../renderer/components/InputQuantity.vue'
 import PartSegmentsTable from '../../renderer/components/PartSegmentsTable.vue'
@@ -31,7 +34,7 @@ describe('typed values in US units (NIST SP 811, appendix B)', () => {
     ['sectionDimension', '1', IN],
     ['mass', '1', LB],
     ['force', '1', LBF],
-    ['modulus', '1', LBF / IN ** 2],
+    ['modulus', '1', (1e6 * LBF) / IN ** 2], // 1 Msi = 10⁶ psi
     ['density', '1', LB / IN ** 3],
     ['stiffness', '1', LBF / IN],
     ['area', '1', 0.00064516], // 1 in² = 6.4516 cm² exactly
@@ -40,15 +43,25 @@ describe('typed values in US units (NIST SP 811, appendix B)', () => {
   })
 
   it('agrees with the rounded factors printed in NIST SP 811, table B.8', () => {
-    // psi → Pa 6.894 757 E+03; lb/in³ → kg/m³ 2.767 990 E+04; lbf/in → N/m 1.751 268 E+02.
+    // psi → Pa 6.894 757 E+03 (so 1 Msi = 6.894 757 E+09 Pa); lb/in³ → kg/m³ 2.767 990 E+04; lbf/in → N/m 1.751 268 E+02.
     // Seven significant digits: within half a unit of the last one.
-    expectClose(typedToSI('US', 'modulus', '1'), 6.894757e3, 5e-7, 'psi')
+    expectClose(typedToSI('US', 'modulus', '1'), 6.894757e9, 5e-7, 'Msi')
     expectClose(typedToSI('US', 'density', '1'), 2.76799e4, 5e-7, 'lb/in³')
     expectClose(typedToSI('US', 'stiffness', '1'), 1.751268e2, 5e-7, 'lbf/in')
   })
 
-  it('stores a typical steel modulus typed in psi as the SI value', () => {
-    expectClose(typedToSI('US', 'modulus', '29e6'), (29e6 * LBF) / IN ** 2, ULP, '29e6 psi')
+  it('shows and takes a US modulus in Msi: steel’s 200 GPa is 29.0 Msi, not 2.90075e7 psi', () => {
+    expect(unitSymbol('US', 'modulus')).toBe('Msi')
+    expectClose(typedToSI('US', 'modulus', '29'), (29e6 * LBF) / IN ** 2, ULP, '29 Msi')
+    // 200 GPa / 6 894.757 Pa per psi = 29 007 547.6 psi.
+    const msi = 200e9 / (LBF / IN ** 2) / 1e6
+    expect(fieldValue('US', 'modulus', 200e9, 6)).toBe(String(Number(msi.toPrecision(6))))
+    expect(fieldValue('US', 'modulus', 200e9, 6)).toBe('29.0075')
+    expect(shown('US', 'modulus', 200e9)).toBe('29.01')
+    // What the field shows, typed back, is what it showed.
+    expectClose(typedToSI('US', 'modulus', fieldValue('US', 'modulus', 200e9)), 200e9, 6e-10, 'round trip')
+    // SI keeps GPa.
+    expect(unitSymbol('SI', 'modulus')).toBe('GPa')
   })
 
   propertyTest.prop([fc.double({ min: 1e-9, max: 1e12, noNaN: true }), fc.constantFrom<UnitSystem>('SI', 'US'), fc.constantFrom<QuantityKind>('length', 'sectionDimension', 'mass', 'modulus', 'density', 'stiffness', 'area')], {
@@ -63,6 +76,65 @@ describe('typed values in US units (NIST SP 811, appendix B)', () => {
     expect(parseTyped('abc')).toBeNaN()
     expect(parseTyped('1.5e3')).toBe(1500)
     expect(parseTyped('\u22122.5')).toBe(-2.5)
+  })
+})
+
+describe('decimal marks of the locale (Intl.NumberFormat)', () => {
+  const de = localeSeparators('de-DE')
+  const en = localeSeparators('en-US')
+  const fr = localeSeparators('fr-FR')
+
+  it('finds the decimal mark of a locale: a comma in de-DE and fr-FR, a point in en-US', () => {
+    expect(de.decimal).toBe(',')
+    expect(fr.decimal).toBe(',')
+    expect(en.decimal).toBe('.')
+  })
+
+  it('accepts a decimal comma where the locale writes one, and a point everywhere', () => {
+    expect(parseTyped('0,16', de)).toBe(0.16)
+    expect(parseTyped('0,16', fr)).toBe(0.16)
+    expect(parseTyped('0.16', de)).toBe(0.16)
+    expect(parseTyped('2,5e3', de)).toBe(2500)
+    expect(parseTyped('\u22122,5', de)).toBe(-2.5)
+    // fr-FR groups with a narrow no-break space.
+    expect(parseTyped('1\u202f500,5', fr)).toBe(1500.5)
+    expect(typedToSI('SI', 'sectionDimension', '24,5', de)).toBeCloseTo(0.0245, 15)
+  })
+
+  it('refuses a comma where the locale writes a point, saying to use the point', () => {
+    expect(parseTyped('0,16', en)).toBeNaN()
+    expect(typedProblem('0,16', en)).toContain('0.16')
+  })
+
+  it('never guesses a mark that could be a digit-group separator', () => {
+    // One mark followed by exactly three digits reads two ways: refused, both readings named.
+    expect(parseTyped('1.500', de)).toBeNaN()
+    expect(typedProblem('1.500', de)).toBe('1.500 could mean 1500 or 1,5: write 1500, or 1,5')
+    expect(parseTyped('1,500', en)).toBeNaN()
+    expect(typedProblem('1,500', en)).toBe('1,500 could mean 1500 or 1.5: write 1500, or 1.5')
+    // Groups that cannot be a decimal are read as groups.
+    expect(parseTyped('1.234.567', de)).toBe(1234567)
+    expect(parseTyped('1.500,25', de)).toBe(1500.25)
+    expect(parseTyped('1,234,567', en)).toBe(1234567)
+    expect(parseTyped('1,500.25', en)).toBe(1500.25)
+    // Not three digits after the mark: a decimal.
+    expect(parseTyped('1.5', de)).toBe(1.5)
+    expect(parseTyped('0.125', de)).toBe(0.125)
+    expect(parseTyped('1,5', de)).toBe(1.5)
+    // Mixed up marks are refused with a reason.
+    expect(parseTyped('1,500.5', de)).toBeNaN()
+    expect(typedProblem('1,500.5', de)).toBeDefined()
+    expect(parseTyped('1.500,5', en)).toBeNaN()
+    expect(typedProblem('1.500,5', en)).toBeDefined()
+  })
+
+  propertyTest.prop([fc.double({ min: 1e-9, max: 1e12, noNaN: true }), fc.constantFrom('de-DE', 'fr-FR', 'en-US', 'de-CH'), fc.constantFrom<QuantityKind>('length', 'mass', 'modulus', 'stiffness')], {
+    seed: 402,
+  })('a field accepts what it shows, in every locale', (valueSI, locale, kind) => {
+    const separators = localeSeparators(locale)
+    const text = fieldValue('US', kind, valueSI, 10, separators)
+    expect(typedProblem(text, separators), text).toBeUndefined()
+    expectClose(typedToSI('US', kind, text, separators), valueSI, 6e-10, `${kind} in ${locale}: ${text}`)
   })
 })
 
@@ -84,6 +156,18 @@ describe('InputQuantity', () => {
     const wrapper = mount(InputQuantity, { props: { modelValue: -1, kind: 'length', units: 'SI', label: 'Length', issue: 'must be > 0' } })
     expect(wrapper.get('.field-issue').text()).toBe('must be > 0')
     expect(wrapper.get('input').attributes('aria-invalid')).toBe('true')
+  })
+
+  it('says why a number with an unclear mark was refused, beside the field', async () => {
+    const wrapper = mount(InputQuantity, { props: { modelValue: 1, kind: 'length', units: 'SI', label: 'Length' } })
+    await wrapper.get('input').trigger('focus')
+    // The other notation's decimal mark before three digits reads two ways in the test machine's locale.
+    const unclear = BROWSER_SEPARATORS.decimal === ',' ? '1.500' : '1,500'
+    await wrapper.get('input').setValue(unclear)
+    expect(wrapper.emitted('update')!.at(-1)![0]).toBeNaN()
+    await wrapper.setProps({ modelValue: NaN, issue: 'must be a number' })
+    expect(typedProblem(unclear)).toContain('could mean 1500')
+    expect(wrapper.get('.field-issue').text()).toBe(typedProblem(unclear))
   })
 
   it('emits NaN for text that is not a number and undefined for an empty field', async () => {
