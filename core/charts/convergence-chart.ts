@@ -90,7 +90,8 @@ export function convergenceChartOption(study: ConvergenceStudy, options: Converg
   const errorName = study.referenceMethod === 'extrapolated' ? '|f − f_ref| / f_ref' : '|f − f_exact| / f_exact'
   return {
     ...baseOption(options),
-    grid: { left: 76, right: 24, top, bottom: 132 },
+    // Room for the legend: two rows for six series (two element types), one for three (bending's Hermite elements only).
+    grid: { left: 76, right: 24, top, bottom: names.length > 3 ? 132 : 108 },
     legend: {
       bottom: 6,
       left: 'center',
