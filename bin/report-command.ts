@@ -134,12 +134,15 @@ export const reportCommand: Command = {
       throw new UsageError(`--elements-per-segment gives about ${dofs.toExponential(2)} unknowns; Rodwave solves at most ${LIMITS.maxDegreesOfFreedom.toLocaleString('en-US')}`)
     }
     const analysis = analyseProject(solved, overrides)
-    let convergence: ConvergenceStudy | undefined
-    try {
-      convergence = convergenceStudy(project, { modes: Math.min(settings.modes, REPORT_CONVERGENCE_MODES), maxDofs: REPORT_CONVERGENCE_MAX_DOFS })
-    } catch (error) {
-      if (!(error instanceof RangeError)) throw error
-      io.stderr(`rodwave: warning: the convergence study stopped (${error.message}); the report leaves it out\n`)
+    // One study per family analysed (analysis.project carries the motions the command line chose).
+    const convergence: ConvergenceStudy[] = []
+    for (const { family } of analysis.families) {
+      try {
+        convergence.push(convergenceStudy(analysis.project, { family: family.key, modes: Math.min(settings.modes, REPORT_CONVERGENCE_MODES), maxDofs: REPORT_CONVERGENCE_MAX_DOFS }))
+      } catch (error) {
+        if (!(error instanceof RangeError)) throw error
+        io.stderr(`rodwave: warning: the convergence study of ${family.key} stopped (${error.message}); the report leaves it out\n`)
+      }
     }
     const html = modalReportHtml({ analysis, convergence, generatedAt: new Date(), appVersion: await appVersion() })
 

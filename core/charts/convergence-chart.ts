@@ -1,15 +1,18 @@
 /**
  * Mesh convergence on log–log axes: |relative frequency error| of one mode against the
  * mesh density (elements per segment, or unknowns) for every mass matrix and element
- * order of a convergence study, measured against the exact reference. The legend gives
+ * order of a convergence study of one motion family, measured against the family's reference
+ * (exact, or a Richardson estimate from two fine meshes, named as such). The legend gives
  * each line's observed order of convergence (the negative slope on these axes). The error
  * axis carries log10 |error| on a value axis (labelled in powers of ten) so each decade is ticked.
  */
 import type { EChartsOption, LineSeriesOption } from 'echarts'
 import type { ConvergenceSeries, ConvergenceStudy } from '../analysis/convergence'
+import type { Family } from '../model/families'
 import type { ElementOrder, MassMatrixKind } from '../model/project'
 import { axisStyle, baseOption, paletteOf, tooltipBase, type ChartBuildOptions } from './chart-common'
 import { escapeHtml, figure } from './chart-text'
+import { modeWords } from './chart-families'
 
 export type ConvergenceAxis = 'elements' | 'unknowns'
 
@@ -26,8 +29,14 @@ const SMALLEST_SHOWN_ERROR = 1e-14
 const MASS_NAMES: Record<MassMatrixKind, string> = { consistent: 'consistent', lumped: 'lumped', mixed: 'mixed' }
 const ORDER_NAMES: Record<ElementOrder, string> = { 1: '2-node', 2: '3-node' }
 
-export function convergenceSeriesLabel(series: Pick<ConvergenceSeries, 'elementOrder' | 'mass'>): string {
-  return `${ORDER_NAMES[series.elementOrder]}, ${MASS_NAMES[series.mass]}`
+/** "2-node, lumped"; a bending study has Hermite cubic elements only: "Hermite, lumped". */
+export function convergenceSeriesLabel(series: Pick<ConvergenceSeries, 'elementOrder' | 'mass'>, family?: Pick<Family, 'motion'>): string {
+  return `${family?.motion === 'bending' ? 'Hermite' : ORDER_NAMES[series.elementOrder]}, ${MASS_NAMES[series.mass]}`
+}
+
+/** The mode a chart of a study shows, in words with its family: "axial mode 1", "bending mode 2 (weak plane)". */
+export function convergenceModeWords(study: Pick<ConvergenceStudy, 'family'>, modeNumber: number): string {
+  return modeWords({ mode: modeNumber, family: study.family.key }, true)
 }
 
 /** "order 2.00", or "order —" where the errors reached round-off before two meshes could show it. */
@@ -52,7 +61,7 @@ export function convergenceChartOption(study: ConvergenceStudy, options: Converg
   const reference = study.referenceHz[modeIndex]
   const names: string[] = []
   const series: LineSeriesOption[] = study.series.map((s) => {
-    const name = `${convergenceSeriesLabel(s)} · ${observedOrderText(s, modeIndex)}`
+    const name = `${convergenceSeriesLabel(s, study.family)} · ${observedOrderText(s, modeIndex)}`
     names.push(name)
     const data = s.points
       .map((p) => ({ x: byUnknowns ? p.dofs : p.elementsPerSegment, error: p.errors[modeIndex] }))
@@ -78,9 +87,11 @@ export function convergenceChartOption(study: ConvergenceStudy, options: Converg
   const highDecade = shownExponents.length ? Math.ceil(Math.max(...shownExponents)) : 0
   const decades = Math.max(1, highDecade - lowDecade)
   const top = options.title ? 40 : 16
+  const errorName = study.referenceMethod === 'extrapolated' ? '|f − f_ref| / f_ref' : '|f − f_exact| / f_exact'
   return {
     ...baseOption(options),
-    grid: { left: 76, right: 24, top, bottom: 132 },
+    // Room for the legend: two rows for six series (two element types), one for three (bending's Hermite elements only).
+    grid: { left: 76, right: 24, top, bottom: names.length > 3 ? 132 : 108 },
     legend: {
       bottom: 6,
       left: 'center',
@@ -103,7 +114,7 @@ export function convergenceChartOption(study: ConvergenceStudy, options: Converg
     },
     yAxis: {
       type: 'value',
-      name: `|f − f_exact| / f_exact, mode ${modeNumber}`,
+      name: `${errorName}, ${convergenceModeWords(study, modeNumber)}`,
       nameLocation: 'middle',
       nameGap: 60,
       min: lowDecade,
@@ -131,7 +142,8 @@ export function convergenceChartOption(study: ConvergenceStudy, options: Converg
               const p = params as { seriesName?: string; value?: number[]; marker?: string }
               if (!p.value) return ''
               const density = byUnknowns ? `${figure(p.value[0], 6)} unknowns` : `${figure(p.value[0], 6)} elements per segment`
-              return `${p.marker ?? ''}${escapeHtml(p.seriesName ?? '')}<br>${density}<br>relative error ${figure(10 ** p.value[1], 3)}`
+              const against = study.referenceMethod === 'extrapolated' ? 'against the extrapolated reference' : 'against the exact frequency'
+              return `${p.marker ?? ''}${escapeHtml(p.seriesName ?? '')}<br>${density}<br>relative error ${figure(10 ** p.value[1], 3)} ${against}`
             },
           },
           dataZoom: [

@@ -14,6 +14,10 @@
  * With a tolerance scatter, each mode's 5–95 % band is drawn as well; where the check used
  * those bands (the pairs carry `modeBandHz`), the margin band is the set of excitations the
  * check calls a conflict with the band [a, b]: a/(1 + margin) < e < b/(1 − margin).
+ *
+ * With modes of several motion families (axial, torsion, bending), each family's natural
+ * frequencies get their own line style and its conflicts their own symbol, with a legend entry
+ * per family (chart-families.ts); a single family is drawn as before, without a legend.
  */
 import type { EChartsOption, LineSeriesOption, ScatterSeriesOption } from 'echarts'
 import type { ModalAnalysis } from '../analysis/modal-analysis'
@@ -23,6 +27,7 @@ import type { Excitation } from '../model/project'
 import { hzToRpm, rpmToHz } from '../model/units'
 import { axisStyle, baseOption, closeRuns, labelSeries, niceCeil, paletteOf, tooltipBase, type ChartBuildOptions, type ChartLabel } from './chart-common'
 import { escapeHtml, figure, signedPercent } from './chart-text'
+import { capitalise, FAMILY_MARKERS, familyShortTitle, familyTitleOfKey, modeWords } from './chart-families'
 
 export interface InterferenceChartInput {
   /** With `referenceHz`, the exact frequency is drawn, as the resonance check uses it where known. */
@@ -111,10 +116,28 @@ export function interferenceExtent(input: InterferenceChartInput): InterferenceE
   for (const e of input.excitations) if ('rpm' in e) rpmTop = Math.max(rpmTop, Array.isArray(e.rpm) ? e.rpm[1] : e.rpm)
   for (const b of bands) hzTop = Math.max(hzTop, b.hz[1])
   const elastic = input.modes.filter((m) => !m.rigidBody)
-  if (elastic.length) hzTop = Math.max(hzTop, modeMarginBand(checkedFrequency(elastic[0]), input.margin)[1])
+  // The lowest elastic mode of any family (each family is sorted, the list as a whole is not).
+  if (elastic.length) hzTop = Math.max(hzTop, modeMarginBand(Math.min(...elastic.map(checkedFrequency)), input.margin)[1])
   const hzMax = niceCeil(1.2 * (hzTop || 100))
   const rpmMax = niceCeil(rpmTop > 0 ? 1.25 * rpmTop : hzToRpm(hzMax))
   return { rpmMax, hzMax, modesAbove: elastic.filter((m) => checkedFrequency(m) > hzMax).length }
+}
+
+/** The families of the modes in the order they first appear (axial, torsion, bending …). */
+export function interferenceFamilies(input: Pick<InterferenceChartInput, 'modes'>): FamilyKey[] {
+  const keys: FamilyKey[] = []
+  for (const m of input.modes) if (!keys.includes(m.family)) keys.push(m.family)
+  return keys
+}
+
+/** The legend entry (and series name) of a family's natural frequencies: "Natural frequencies" for a lone family, else "Torsion modes". */
+export function familySeriesName(key: FamilyKey, several: boolean): string {
+  return several ? `${familyTitleOfKey(key)} modes` : 'Natural frequencies'
+}
+
+/** The series of a family's conflict marks: "Conflicts", or "Conflicts · torsion" beside other families. */
+export function conflictSeriesName(key: FamilyKey, several: boolean): string {
+  return several ? `Conflicts · ${familyTitleOfKey(key).toLowerCase()}` : 'Conflicts'
 }
 
 export interface InterferenceChartOptions extends ChartBuildOptions {
@@ -132,34 +155,50 @@ export function interferenceChartOption(input: InterferenceChartInput, options: 
   const marginText = `±${figure(100 * input.margin, 3)} %`
   const series: (LineSeriesOption | ScatterSeriesOption)[] = []
 
-  // Natural frequencies: a line and its margin band each (around the tolerance band where the check used it).
+  // Natural frequencies: a line and its margin band each (around the tolerance band where the check used it), one series per family.
+  // A chart without modes still carries its (empty) series.
+  const found = interferenceFamilies(input)
+  const families: FamilyKey[] = found.length ? found : ['axial']
+  const several = families.length > 1
   const shownModes = input.modes.filter((m) => !m.rigidBody && checkedFrequency(m) <= hzMax)
   const checkedBands = new Map<string, readonly [number, number]>()
   for (const pair of input.resonance) if (pair.modeBandHz) checkedBands.set(modeKey(pair), pair.modeBandHz)
-  series.push({
-    type: 'line',
-    name: 'Natural frequencies',
-    data: [],
-    markArea: {
-      silent: !options.interactive,
-      itemStyle: { color: palette.modeBand },
-      label: { show: false },
-      data: shownModes.map((m) => {
-        const modeBandHz = checkedBands.get(modeKey(m))
-        const [lo, hi] = pairMarginBand({ frequencyHz: checkedFrequency(m), modeBandHz }, input.margin)
-        return [{ yAxis: lo, name: `Mode ${m.mode} margin band${modeBandHz ? ' around its tolerance band' : ''}` }, { yAxis: hi }]
-      }),
-    },
-    markLine: {
-      silent: !options.interactive,
-      symbol: 'none',
-      animation: false,
-      lineStyle: { color: palette.modeLine, width: 1.6, type: 'solid' },
-      // Named by the chart's label series (labelsOfInterference), which keeps labels apart.
-      label: { show: false },
-      data: shownModes.map((m) => ({ yAxis: checkedFrequency(m), name: `Mode ${m.mode} · ${figure(checkedFrequency(m), 4)} Hz` })),
-    },
-  })
+  const modeName = (m: InterferenceChartInput['modes'][number]) => (several ? `${familyShortTitle(m.family)} ${m.mode}` : `Mode ${m.mode}`)
+  for (const key of families) {
+    const marker = FAMILY_MARKERS[key]
+    const modes = shownModes.filter((m) => m.family === key)
+    series.push({
+      type: 'line',
+      name: familySeriesName(key, several),
+      data: [],
+      // The legend draws the family's line style and its conflict symbol.
+      symbol: marker.symbol,
+      symbolSize: 9,
+      lineStyle: { color: palette.modeLine, width: 1.6, type: marker.lineType },
+      itemStyle: { color: palette.modeLine },
+      markArea: {
+        silent: !options.interactive,
+        itemStyle: { color: palette.modeBand },
+        label: { show: false },
+        data: modes.map((m) => {
+          const modeBandHz = checkedBands.get(modeKey(m))
+          const [lo, hi] = pairMarginBand({ frequencyHz: checkedFrequency(m), modeBandHz }, input.margin)
+          return [{ yAxis: lo, name: `${several ? capitalise(modeWords(m, true)) : `Mode ${m.mode}`} margin band${modeBandHz ? ' around its tolerance band' : ''}` }, { yAxis: hi }]
+        }),
+      },
+      markLine: {
+        silent: !options.interactive,
+        symbol: 'none',
+        animation: false,
+        lineStyle: { color: palette.modeLine, width: 1.6, type: marker.lineType },
+        // Named by the chart's label series (labelsOfInterference), which keeps labels apart.
+        label: { show: false },
+        data: modes.map((m) => ({ yAxis: checkedFrequency(m), name: `${modeName(m)} · ${figure(checkedFrequency(m), 4)} Hz` })),
+      },
+    })
+  }
+
+  const modeSeriesNames = new Set(families.map((key) => familySeriesName(key, several)))
 
   // Tolerance bands: where 90 % of the scattered parts put each mode.
   if (input.scatter?.length) {
@@ -172,7 +211,7 @@ export function interferenceChartOption(input: InterferenceChartInput, options: 
         silent: !options.interactive,
         itemStyle: { color: palette.modeLine, opacity: 0.3 },
         label: { show: false },
-        data: shownBands.map((b) => [{ yAxis: b.p05, name: `Mode ${b.mode} tolerance band (5–95 %): ${figure(b.p05, 4)}–${figure(b.p95, 4)} Hz` }, { yAxis: b.p95 }]),
+        data: shownBands.map((b) => [{ yAxis: b.p05, name: `${several ? capitalise(modeWords(b, true)) : `Mode ${b.mode}`} tolerance band (5–95 %): ${figure(b.p05, 4)}–${figure(b.p95, 4)} Hz` }, { yAxis: b.p95 }]),
       },
     })
   }
@@ -262,37 +301,61 @@ export function interferenceChartOption(input: InterferenceChartInput, options: 
     })
   })
   const fixedMarkRpm = 0.03 * rpmMax
-  series.push({
-    type: 'scatter',
-    name: 'Conflicts',
-    symbol: 'diamond',
-    symbolSize: 13,
-    z: 5,
-    itemStyle: { color: palette.conflict, borderColor: palette.background, borderWidth: 1.5 },
-    // No text of its own: a diamond sits on its mode's labelled line, on its excitation's labelled line or band.
-    label: { show: false },
-    data: marks.map((m) => [m.rpm ?? fixedMarkRpm, m.hz]),
-  })
+  // One series of marks per family, in that family's symbol.
+  const marksBySeries = new Map<string, ConflictMark[]>()
+  for (const key of families) {
+    const own = marks.filter((m) => m.pair.family === key)
+    if (!own.length && several) continue
+    const name = conflictSeriesName(key, several)
+    marksBySeries.set(name, own)
+    series.push({
+      type: 'scatter',
+      name,
+      symbol: FAMILY_MARKERS[key].symbol,
+      symbolSize: 13,
+      z: 5,
+      itemStyle: { color: palette.conflict, borderColor: palette.background, borderWidth: 1.5 },
+      // No text of its own: a mark sits on its mode's labelled line, on its excitation's labelled line or band.
+      label: { show: false },
+      data: own.map((m) => [m.rpm ?? fixedMarkRpm, m.hz]),
+    })
+  }
   series.push(labelSeries(interferenceLabels(input, shownModes, orderBands, { rpmMax, hzMax, palette }), palette))
 
   const conflictText = (mark: ConflictMark) => {
     const p = mark.pair
+    const subject = capitalise(modeWords(p, several))
     const where =
       p.band.order === null
         ? `${figure(p.band.hz[0], 4)}${p.band.hz[1] !== p.band.hz[0] ? `–${figure(p.band.hz[1], 4)}` : ''} Hz`
         : `${figure(hzToRpm(p.band.hz[0]) / p.band.order, 5)}${p.band.hz[1] !== p.band.hz[0] ? `–${figure(hzToRpm(p.band.hz[1]) / p.band.order, 5)}` : ''} rpm × ${figure(p.band.order, 3)} = ${figure(p.band.hz[0], 4)}${p.band.hz[1] !== p.band.hz[0] ? `–${figure(p.band.hz[1], 4)}` : ''} Hz`
     return [
-      `<b>Conflict: mode ${p.mode} and ${escapeHtml(bandName(p.band))}</b>`,
-      p.modeBandHz ? `Mode ${p.mode}: ${figure(p.frequencyHz, 4)} Hz, tolerance band ${figure(p.modeBandHz[0], 4)}–${figure(p.modeBandHz[1], 4)} Hz` : `Mode ${p.mode}: ${figure(p.frequencyHz, 4)} Hz`,
+      `<b>Conflict: ${modeWords(p, several)} and ${escapeHtml(bandName(p.band))}</b>`,
+      p.modeBandHz ? `${subject}: ${figure(p.frequencyHz, 4)} Hz, tolerance band ${figure(p.modeBandHz[0], 4)}–${figure(p.modeBandHz[1], 4)} Hz` : `${subject}: ${figure(p.frequencyHz, 4)} Hz`,
       `Excitation: ${escapeHtml(where)}`,
       `Separation ${signedPercent(p.separation)} (margin ${marginText})`,
     ].join('<br>')
   }
 
   const subtitle = extent.modesAbove > 0 && options.hzMax === undefined ? `${extent.modesAbove} higher mode${extent.modesAbove > 1 ? 's' : ''} above ${figure(hzMax, 4)} Hz not shown` : ''
-  const top = options.title ? 44 : 20
+  // A row for the family legend above the plot when there are several families.
+  const legendTop = options.title ? 28 : 2
+  const top = (options.title ? 44 : 20) + (several ? 22 : 0)
   return {
     ...baseOption(options),
+    ...(several
+      ? {
+          legend: {
+            top: legendTop,
+            left: 68,
+            itemWidth: 30,
+            itemGap: 16,
+            textStyle: { color: palette.text },
+            inactiveColor: palette.axisLine,
+            data: families.map((key) => familySeriesName(key, several)),
+          },
+        }
+      : {}),
     ...(subtitle
       ? {
           graphic: [{ type: 'text', right: 24, top: top - 16, style: { text: subtitle, fill: palette.mutedText, fontSize: 11 } }],
@@ -326,8 +389,9 @@ export function interferenceChartOption(input: InterferenceChartInput, options: 
             trigger: 'item',
             formatter: (params: unknown) => {
               const p = params as { seriesName?: string; componentType?: string; name?: string; dataIndex?: number; value?: unknown }
-              if (p.seriesName === 'Conflicts' && p.componentType === 'series' && p.dataIndex !== undefined) return conflictText(marks[p.dataIndex])
-              if (p.componentType === 'markArea' && p.seriesName === 'Natural frequencies') return `${escapeHtml(p.name ?? '')} (${marginText}): an excitation in this band conflicts`
+              const conflictMarks = p.seriesName === undefined ? undefined : marksBySeries.get(p.seriesName)
+              if (conflictMarks && p.componentType === 'series' && p.dataIndex !== undefined) return conflictText(conflictMarks[p.dataIndex])
+              if (p.componentType === 'markArea' && p.seriesName !== undefined && modeSeriesNames.has(p.seriesName)) return `${escapeHtml(p.name ?? '')} (${marginText}): an excitation in this band conflicts`
               if (p.componentType === 'markArea' || p.componentType === 'markLine') return escapeHtml(p.name ?? '')
               return escapeHtml(p.seriesName ?? '')
             },
@@ -377,13 +441,15 @@ export function interferenceLabels(
   const labels: ChartLabel[] = []
 
   const modes = [...shownModes].sort((a, b) => checkedFrequency(a) - checkedFrequency(b))
+  const several = new Set(modes.map((m) => m.family)).size > 1
+  const name = (m: InterferenceChartInput['modes'][number]) => (several ? `${familyShortTitle(m.family)} ${m.mode}` : String(m.mode))
   for (const run of closeRuns(modes.map((m) => checkedFrequency(m) / hzMax), INTERFERENCE_LABEL_GAP)) {
     const members = run.map((i) => modes[i])
     const top = members.at(-1)!
     const text =
       members.length === 1
-        ? `Mode ${top.mode} · ${figure(checkedFrequency(top), 4)} Hz`
-        : `Modes ${members.map((m) => m.mode).join(', ')} · ${members.map((m) => figure(checkedFrequency(m), 4)).join(', ')} Hz`
+        ? `${several ? name(top) : `Mode ${top.mode}`} · ${figure(checkedFrequency(top), 4)} Hz`
+        : `${several ? '' : 'Modes '}${members.map(name).join(', ')} · ${members.map((m) => figure(checkedFrequency(m), 4)).join(', ')} Hz`
     labels.push({ at: [rpmMax, checkedFrequency(top)], text, color: palette.modeLine, place: 'insideBottomRight', distance: 4 })
   }
 
@@ -433,17 +499,20 @@ export function interferenceLabels(
 /**
  * Plain-language line for a pair: "Mode 1 at 106 Hz is 6.4 % above Motor twice line frequency (100 Hz)";
  * for a pair checked on a tolerance band: "Mode 1, tolerance band 103.8–109.2 Hz, is 3.8 % above …".
+ * With `withFamily` (a part analysed in several motions) the mode names its family:
+ * "Torsion mode 1 at 783 Hz …", "Bending mode 1 (weak plane) at 14.1 Hz …".
  */
-export function pairSentence(pair: ResonancePair): string {
+export function pairSentence(pair: ResonancePair, withFamily = false): string {
   const band: ExcitationBand = pair.band
   const [lo, hi] = band.hz
   const bandText =
     lo === hi ? `${figure(lo, 4)} Hz` : `${figure(lo, 4)}–${figure(hi, 4)} Hz`
   const speed =
     band.order === null ? '' : `, ${figure(hzToRpm(lo) / band.order, 5)}${lo === hi ? '' : `–${figure(hzToRpm(hi) / band.order, 5)}`} rpm`
+  const name = capitalise(modeWords(pair, withFamily))
   const subject = pair.modeBandHz
-    ? `Mode ${pair.mode}, tolerance band ${figure(pair.modeBandHz[0], 4)}–${figure(pair.modeBandHz[1], 4)} Hz,`
-    : `Mode ${pair.mode} at ${figure(pair.frequencyHz, 3)} Hz`
+    ? `${name}, tolerance band ${figure(pair.modeBandHz[0], 4)}–${figure(pair.modeBandHz[1], 4)} Hz,`
+    : `${name} at ${figure(pair.frequencyHz, 3)} Hz`
   if (pair.separation === 0) return `${subject} ${pair.modeBandHz ? 'overlaps' : 'lies inside'} ${bandName(band)} (${bandText}${speed})`
   const direction = pair.separation > 0 ? 'above' : 'below'
   return `${subject} is ${figure(Math.abs(100 * pair.separation), 2)} % ${direction} ${bandName(band)} (${bandText}${speed})`

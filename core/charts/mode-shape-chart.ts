@@ -1,15 +1,21 @@
 /**
- * Mode shapes along the bar: axial displacement (top) and axial stress or strain
- * (bottom) of the chosen modes, with the segment boundaries marked.
+ * Mode shapes along the part, per motion family: the family's displacement (top) and its
+ * stress or strain (bottom) for the chosen modes, with the segment boundaries marked —
+ * - axial: displacement u, axial stress E u′ or strain u′;
+ * - torsion: twist θ, the largest shear stress on the section or the twist rate θ′;
+ * - bending: deflection w, the bending stress at the surface E c w″ or the curvature w″
+ *   (or the slope w′).
  *
  * Mass-normalised shapes have no physical amplitude, so each mode is scaled to a largest
- * displacement of 1 (largest excursion positive); its strain and stress are scaled by
- * the same factor and read as "per unit of peak displacement": the stress a vibration
- * of 1 mm peak amplitude (or 1 in) would cause, which is what an engineer can use.
+ * displacement (twist, deflection) of 1, largest excursion positive; its strain and stress are
+ * scaled by the same factor and read as "per unit of peak displacement": the stress a vibration
+ * of 1 mm (or 1 in, or 1 rad of twist) peak amplitude would cause, which is what an engineer can use.
  */
 import type { EChartsOption, LineSeriesOption } from 'echarts'
 import { modeShape, modeStrain, type FamilyAnalysis } from '../analysis/modal-analysis'
+import type { BendingPlane } from '../model/families'
 import { segmentBoundaries, totalLength } from '../model/geometry'
+import type { Motion } from '../model/project'
 import { displayUnit, toDisplay, type UnitSystem } from '../model/units'
 import { axisStyle, baseOption, paletteOf, tooltipBase, type ChartBuildOptions } from './chart-common'
 import { escapeHtml, figure } from './chart-text'
@@ -20,17 +26,25 @@ export interface ModeShapeCurve {
   readonly rigidBody: boolean
   /** Node positions, m. */
   readonly x: number[]
-  /** Displacement scaled to a largest magnitude of 1, the largest excursion positive. */
+  /** Displacement (axial u, twist θ or deflection w) scaled to a largest magnitude of 1, the largest excursion positive. */
   readonly displacement: number[]
   /** Positions of the strain samples, m: both ends of every element, so jumps at steps show. */
   readonly strainX: number[]
-  /** Strain per metre of peak displacement, 1/m. */
+  /**
+   * Strain per unit of peak displacement: axial strain per m (1/m), twist rate per rad of peak
+   * twist (1/m), curvature per m of peak deflection (1/m²).
+   */
   readonly strain: number[]
-  /** Stress per metre of peak displacement, Pa/m. */
+  /** Stress per unit of peak displacement: Pa/m (axial, bending at the surface) or Pa/rad (torsion's shear); NaN where the section gives no dimension. */
   readonly stress: number[]
+  /** Bending only: the slope w′ at the nodes per m of peak deflection (rad/m). */
+  readonly slope?: number[]
 }
 
 export interface ModeShapeChartData {
+  /** The family the modes belong to (axial when absent). */
+  readonly motion?: Motion
+  readonly plane?: BendingPlane | null
   /** Bar length, m. */
   readonly length: number
   /** x of every segment boundary, m. */
@@ -39,9 +53,9 @@ export interface ModeShapeChartData {
 }
 
 /**
- * Chart data of the chosen modes (0-based indices; all modes by default). Meshes finer than
- * `maxPoints` nodes are thinned evenly, always keeping the nodes at segment boundaries and
- * attachments, so a chart of a million-unknown model stays light.
+ * Chart data of the chosen modes of one family (0-based indices; all modes by default). Meshes
+ * finer than `maxPoints` nodes are thinned evenly, always keeping the nodes at segment boundaries
+ * and attachments, so a chart of a million-unknown model stays light.
  */
 export function modeShapeChartData(analysis: FamilyAnalysis, modeIndices?: readonly number[], maxPoints = 2000): ModeShapeChartData {
   const indices = modeIndices ?? analysis.modes.map((_, i) => i)
@@ -54,7 +68,7 @@ export function modeShapeChartData(analysis: FamilyAnalysis, modeIndices?: reado
     if (i === 0 || mesh.elementSegment[i - 1] !== mesh.elementSegment[i]) boundaryElements.push(i - 1, i)
   }
   const keepElements = thinned(elementCount, Math.max(2, Math.floor(maxPoints / 2)), boundaryElements.filter((i) => i >= 0))
-  const curves = indices.map((index) => {
+  const curves = indices.map((index): ModeShapeCurve => {
     const mode = analysis.modes[index]
     const shape = modeShape(analysis, index)
     const strain = modeStrain(analysis, index)
@@ -71,6 +85,7 @@ export function modeShapeChartData(analysis: FamilyAnalysis, modeIndices?: reado
         stressValues.push(strain.stress[k] * scale)
       }
     }
+    const rotation = shape.rotation
     return {
       mode: mode.mode,
       frequencyHz: mode.frequencyHz,
@@ -80,9 +95,16 @@ export function modeShapeChartData(analysis: FamilyAnalysis, modeIndices?: reado
       strainX,
       strain: strainValues,
       stress: stressValues,
+      ...(rotation ? { slope: keepNodes.map((n) => rotation[n] * scale) } : {}),
     }
   })
-  return { length: totalLength(analysis.project.segments), segmentBoundaries: segmentBoundaries(analysis.project.segments), curves }
+  return {
+    motion: analysis.family.motion,
+    plane: analysis.family.plane,
+    length: totalLength(analysis.project.segments),
+    segmentBoundaries: segmentBoundaries(analysis.project.segments),
+    curves,
+  }
 }
 
 /** Indices 0 … count−1, every k-th of them where there are more than `limit`, plus the ones that must stay. */
@@ -95,18 +117,48 @@ function thinned(count: number, limit: number, mustKeep: readonly number[]): num
   return [...keep].sort((a, b) => a - b)
 }
 
-export type ModeShapeLower = 'stress' | 'strain'
+/** What the lower plot shows: stress, strain (twist rate, curvature), or for bending the slope. */
+export type ModeShapeLower = 'stress' | 'strain' | 'slope'
 
 export interface ModeShapeChartOptions extends ChartBuildOptions {
-  /** What the lower plot shows (default stress). */
+  /** What the lower plot shows (default stress; the slope only for bending, stress otherwise). */
   readonly lower?: ModeShapeLower
 }
 
-/** Axis titles and the factor from SI to the shown unit of the lower plot. */
-export function lowerQuantity(lower: ModeShapeLower, units: UnitSystem): { name: string; unit: string; factor: number } {
+/** The name of a family's displacement on the upper axis: "Displacement u / u_peak", "Twist θ / θ_peak", "Deflection w / w_peak". */
+export function upperQuantityName(motion: Motion = 'axial'): string {
+  if (motion === 'torsion') return 'Twist θ / θ_peak'
+  if (motion === 'bending') return 'Deflection w / w_peak'
+  return 'Displacement u / u_peak'
+}
+
+/** The lower plot a family can show: the slope is bending's only. */
+export function effectiveLower(lower: ModeShapeLower | undefined, motion: Motion = 'axial'): ModeShapeLower {
+  return lower === 'slope' && motion !== 'bending' ? 'stress' : (lower ?? 'stress')
+}
+
+/**
+ * Axis title, unit and the factor from SI to the shown unit of the lower plot, per family:
+ * stress per unit of peak displacement (per mm or in; per rad of twist), axial strain in µε per
+ * mm or in, twist rate in (rad/m) per rad, curvature in (1/m) per mm, slope in rad per mm.
+ */
+export function lowerQuantity(lower: ModeShapeLower, units: UnitSystem, motion: Motion = 'axial'): { name: string; unit: string; factor: number } {
   const per = displayUnit(units, 'sectionDimension')
-  if (lower === 'stress') {
-    const stress = displayUnit(units, 'stress')
+  const length = displayUnit(units, 'length')
+  const stress = displayUnit(units, 'stress')
+  const angle = displayUnit(units, 'angle')
+  const shown = effectiveLower(lower, motion)
+  if (motion === 'torsion') {
+    // Pa per rad of peak twist → (stress unit) per (angle unit); (rad/m) per rad → (rad per length unit) per rad.
+    if (shown === 'stress') return { name: 'Shear stress per peak θ', unit: `${stress.symbol}/${angle.symbol}`, factor: angle.toSI / stress.toSI }
+    return { name: 'Twist rate per peak θ', unit: `(${angle.symbol}/${length.symbol})/${angle.symbol}`, factor: length.toSI }
+  }
+  if (motion === 'bending') {
+    if (shown === 'stress') return { name: 'Bending stress per peak w', unit: `${stress.symbol}/${per.symbol}`, factor: per.toSI / stress.toSI }
+    if (shown === 'slope') return { name: 'Slope per peak w', unit: `${angle.symbol}/${per.symbol}`, factor: per.toSI / angle.toSI }
+    return { name: 'Curvature per peak w', unit: `(1/${length.symbol})/${per.symbol}`, factor: length.toSI * per.toSI }
+  }
+  if (shown === 'stress') {
     // (Pa per m of peak displacement) → (stress unit per `per` unit of peak displacement)
     return { name: 'Stress per peak u', unit: `${stress.symbol}/${per.symbol}`, factor: per.toSI / stress.toSI }
   }
@@ -117,9 +169,17 @@ export function modeCurveName(curve: Pick<ModeShapeCurve, 'mode' | 'frequencyHz'
   return curve.rigidBody ? `Mode ${curve.mode} · rigid body` : `Mode ${curve.mode} · ${figure(curve.frequencyHz, 4)} Hz`
 }
 
+/** The lower plot's samples of a curve: element ends for stress and strain, nodes for the slope. */
+function lowerSamples(curve: ModeShapeCurve, lower: ModeShapeLower): { x: number[]; values: number[] } {
+  if (lower === 'slope' && curve.slope) return { x: curve.x, values: curve.slope }
+  return { x: curve.strainX, values: lower === 'strain' ? curve.strain : curve.stress }
+}
+
 export function modeShapeChartOption(data: ModeShapeChartData, options: ModeShapeChartOptions): EChartsOption {
   const palette = paletteOf(options)
-  const lower = lowerQuantity(options.lower ?? 'stress', options.units)
+  const motion = data.motion ?? 'axial'
+  const shownLower = effectiveLower(options.lower, motion)
+  const lower = lowerQuantity(shownLower, options.units, motion)
   const lengthUnit = displayUnit(options.units, 'length')
   const toLength = (x: number) => toDisplay(options.units, 'length', x)
   const axis = axisStyle(palette)
@@ -155,7 +215,7 @@ export function modeShapeChartOption(data: ModeShapeChartData, options: ModeShap
       itemStyle: { color: colour(i) },
       data: curve.x.map((x, j) => [toLength(x), curve.displacement[j]]),
     })
-    const values = options.lower === 'strain' ? curve.strain : curve.stress
+    const samples = lowerSamples(curve, shownLower)
     series.push({
       type: 'line',
       name,
@@ -164,7 +224,8 @@ export function modeShapeChartOption(data: ModeShapeChartData, options: ModeShap
       showSymbol: false,
       lineStyle: { width: 1.6, color: colour(i) },
       itemStyle: { color: colour(i) },
-      data: curve.strainX.map((x, j) => [toLength(x), values[j] * lower.factor]),
+      // A NaN value (a stress where the section gives no dimension) leaves a gap in the line.
+      data: samples.x.map((x, j) => [toLength(x), samples.values[j] * lower.factor]),
     })
   })
   const xAxis = (gridIndex: number, showName: boolean) => ({
@@ -198,7 +259,7 @@ export function modeShapeChartOption(data: ModeShapeChartData, options: ModeShap
       {
         type: 'value',
         gridIndex: 0,
-        name: 'Displacement u / u_peak',
+        name: upperQuantityName(motion),
         nameLocation: 'middle',
         nameGap: 40,
         min: -1,

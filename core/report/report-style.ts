@@ -2,11 +2,21 @@
  * The report's one stylesheet, inline in the document: an A4 page for print (page
  * numbers in the bottom margin), a sheet on a grey desk on screen. System fonts only.
  */
-export const REPORT_CSS = `
+/** CSS string content: quotes and backslashes escaped, anything outside ASCII as a CSS escape. */
+function cssString(text: string): string {
+  return text.replace(/["\\]/g, (c) => `\\${c}`).replace(/[^\x20-\x7e]/g, (c) => `\\${(c.codePointAt(0) ?? 0).toString(16)} `)
+}
+
+/** The stylesheet, with the document's kind ("axial modal summary") in the page footer. */
+export function reportCss(kind: string): string {
+  return REPORT_CSS_TEMPLATE.replace('KIND', cssString(kind))
+}
+
+const REPORT_CSS_TEMPLATE = `
 @page {
   size: A4;
   margin: 16mm 15mm 18mm 15mm;
-  @bottom-left { content: "Rodwave \\2014  axial modal summary"; font: 7.5pt "DejaVu Sans", "Liberation Sans", Arial, sans-serif; color: #5b6670; }
+  @bottom-left { content: "Rodwave \\2014  KIND"; font: 7.5pt "DejaVu Sans", "Liberation Sans", Arial, sans-serif; color: #5b6670; }
   @bottom-right { content: "Page " counter(page) " of " counter(pages); font: 7.5pt "DejaVu Sans", "Liberation Sans", Arial, sans-serif; color: #5b6670; }
 }
 :root { --ink: #1b1f24; --muted: #5b6670; --rule: #c9d0d6; --accent: #1f4e5f; --band: #f2f5f7;
@@ -63,6 +73,10 @@ ul { margin: 1.5mm 0; padding-left: 5mm; }
 li { margin: .6mm 0; }
 section.cautions { margin-top: 5mm; padding: 3mm 4mm; border: .9pt solid var(--conflict); break-inside: avoid; page-break-inside: avoid; }
 section.cautions h2 { margin-top: 0; color: var(--conflict); border-bottom-color: var(--conflict); }
+p.family-facts { color: var(--muted); }
+ul.family-verdicts li { margin: .8mm 0; }
+table.section-constants, table.ends, table.family-checks { break-inside: avoid; page-break-inside: avoid; }
+a { color: inherit; text-decoration: none; }
 footer.colophon { margin-top: 6mm; padding-top: 2mm; border-top: .4pt solid var(--rule); font-size: 7.5pt; color: var(--muted); }
 .keep-together { break-inside: avoid; page-break-inside: avoid; }
 `

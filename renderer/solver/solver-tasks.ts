@@ -106,7 +106,7 @@ export interface ReportTaskInput {
 export function reportTask(input: ReportTaskInput): string {
   return modalReportHtml({
     analysis: analyseProject(input.project),
-    ...(input.convergence ? { convergence: input.convergence } : {}),
+    ...(input.convergence ? { convergence: [input.convergence] } : {}),
     generatedAt: new Date(input.generatedAt),
     appVersion: input.appVersion,
   })

@@ -320,3 +320,178 @@ describe('chart labels never collide', () => {
     expect(named('mode 4').label.distance).not.toBe(named('mode 5').label.distance)
   })
 })
+
+/**
+ * Charts of the other motion families. A uniform round steel shaft, fixed (clamped) at x = 0 and
+ * free at x = L, has closed-form modes: torsion θ₁ = sin(πx/2L) with surface shear stress
+ * τ = G r θ′ (Rao, torsional vibration of shafts, from memory); bending (Euler–Bernoulli)
+ * φ = cosh βx − cos βx − σ(sinh βx − sin βx), σ = (cosh βL + cos βL)/(sinh βL + sin βL),
+ * 1 + cos βL cosh βL = 0 (Blevins, Formulas for Natural Frequency and Mode Shape, table 8-1,
+ * from memory), surface bending stress E c w″.
+ */
+function shaft(doc: Record<string, unknown> = {}): Project {
+  const read = readProjectDocument({
+    format: 'rodwave',
+    version: 2,
+    motions: ['axial', 'torsion', 'bending'],
+    materials: [{ id: 'steel', youngsModulus: 200e9, density: 7850, poissonRatio: 0.3 }],
+    segments: [{ length: 1, material: 'steel', section: { shape: 'solid', diameter: 0.02 } }],
+    ends: { start: { axial: 'fixed', torsion: 'fixed', bending: 'clamped' }, end: { axial: 'free', torsion: 'free', bending: 'free' } },
+    analysis: { elementOrder: 2, elementsPerSegment: 200, mass: 'consistent', modes: 3 },
+    excitations: [
+      { label: 'Gear mesh', hz: 790, excites: ['torsion'] },
+      { label: 'Fan', rpm: [900, 1000], orders: [1] },
+    ],
+    margin: 0.15,
+    ...doc,
+  })
+  if (!read.ok) throw new Error(read.issues.map((i) => `${i.path}: ${i.message}`).join('\n'))
+  return read.project
+}
+
+/** First root of 1 + cos x cosh x = 0, by bisection on [1, 2.5]. */
+function clampedFreeBeta(): number {
+  let a = 1
+  let b = 2.5
+  for (let i = 0; i < 200; i++) {
+    const mid = 0.5 * (a + b)
+    if (Math.sign(1 + Math.cos(mid) * Math.cosh(mid)) === Math.sign(1 + Math.cos(a) * Math.cosh(a))) a = mid
+    else b = mid
+  }
+  return 0.5 * (a + b)
+}
+
+const lowerSeries = (option: ReturnType<typeof modeShapeChartOption>) =>
+  (option.series as LineSeriesOption[]).filter((s) => s.yAxisIndex === 1 && s.name !== 'Segment boundaries')
+const yAxisNames = (option: ReturnType<typeof modeShapeChartOption>) => (option.yAxis as { name: string }[]).map((a) => a.name)
+
+describe('mode shapes per family', () => {
+  const analysis = analyseProject(shaft())
+  const family = (key: string) => analysis.families.find((f) => f.family.key === key)!
+
+  it('torsion: twist sin(πx/2L) scaled to 1, shear stress G r π/(2L) per rad of peak twist at the fixed end, in MPa/rad', () => {
+    const data = modeShapeChartData(family('torsion'), [0])
+    expect(data.motion).toBe('torsion')
+    const curve = data.curves[0]
+    let worst = 0
+    curve.x.forEach((x, i) => (worst = Math.max(worst, Math.abs(curve.displacement[i] - Math.sin((Math.PI * x) / 2)))))
+    expect(worst, `largest deviation from sin(πx/2L): ${worst}`).toBeLessThan(1e-4)
+    const option = modeShapeChartOption(data, { interactive: false, units: 'SI' })
+    expect(yAxisNames(option)).toEqual(['Twist θ / θ_peak', 'Shear stress per peak θ (MPa/rad)'])
+    const G = 200e9 / (2 * 1.3)
+    const atRoot = (lowerSeries(option)[0].data as number[][])[0][1]
+    // 3-node elements' strain at an element end is O(h²): within 1e-4 at 200 elements.
+    expect(Math.abs(atRoot / ((G * 0.01 * (Math.PI / 2)) / 1e6) - 1)).toBeLessThan(1e-4)
+    // 1 psi = 6894.757 Pa (NIST SP 811); the twist stays in rad.
+    const us = modeShapeChartOption(data, { interactive: false, units: 'US' })
+    expect(yAxisNames(us)[1]).toBe('Shear stress per peak θ (psi/rad)')
+    expect((lowerSeries(us)[0].data as number[][])[0][1] / atRoot).toBeCloseTo(1e6 / 6894.757293168361, 6)
+    const strain = modeShapeChartOption(data, { interactive: false, units: 'SI', lower: 'strain' })
+    expect(yAxisNames(strain)[1]).toBe('Twist rate per peak θ ((rad/m)/rad)')
+    expect((lowerSeries(strain)[0].data as number[][])[0][1]).toBeCloseTo(Math.PI / 2, 3)
+  })
+
+  it('bending: the clamped–free first mode scaled to a tip deflection of 1, root stress E c β²·2/φ(L) per m, slope 0 at the clamp', () => {
+    const data = modeShapeChartData(family('bending'), [0])
+    expect(data.motion).toBe('bending')
+    const beta = clampedFreeBeta()
+    const sigma = (Math.cosh(beta) + Math.cos(beta)) / (Math.sinh(beta) + Math.sin(beta))
+    const phi = (x: number) => Math.cosh(beta * x) - Math.cos(beta * x) - sigma * (Math.sinh(beta * x) - Math.sin(beta * x))
+    const curve = data.curves[0]
+    let worst = 0
+    curve.x.forEach((x, i) => (worst = Math.max(worst, Math.abs(curve.displacement[i] - phi(x) / phi(1)))))
+    expect(worst, `largest deviation from φ(x)/φ(L): ${worst}`).toBeLessThan(1e-6)
+    const option = modeShapeChartOption(data, { interactive: false, units: 'SI' })
+    expect(yAxisNames(option)).toEqual(['Deflection w / w_peak', 'Bending stress per peak w (MPa/mm)'])
+    // φ″(0) = 2β²: stress E c φ″(0)/φ(L) per m of tip deflection, shown per mm.
+    const expected = (200e9 * 0.01 * ((2 * beta * beta) / phi(1)) * 1e-3) / 1e6
+    const atRoot = (lowerSeries(option)[0].data as number[][])[0][1]
+    expect(Math.abs(atRoot / expected - 1), `root stress ${atRoot} MPa/mm, expected ${expected}`).toBeLessThan(1e-3)
+    const slope = modeShapeChartOption(data, { interactive: false, units: 'SI', lower: 'slope' })
+    expect(yAxisNames(slope)[1]).toBe('Slope per peak w (rad/mm)')
+    const slopes = lowerSeries(slope)[0].data as number[][]
+    expect(slopes[0][1]).toBe(0)
+    // φ′(L)/φ(L) per m at the tip, shown per mm.
+    const dphi = beta * (Math.sinh(beta) + Math.sin(beta) - sigma * (Math.cosh(beta) - Math.cos(beta)))
+    expect(Math.abs(slopes[slopes.length - 1][1] / ((dphi / phi(1)) * 1e-3) - 1)).toBeLessThan(1e-6)
+  })
+
+  it('keeps the axial chart as it was, and asks a family without a slope for its stress', () => {
+    const axial = modeShapeChartOption(modeShapeChartData(family('axial'), [0]), { interactive: false, units: 'SI', lower: 'slope' })
+    expect(yAxisNames(axial)).toEqual(['Displacement u / u_peak', 'Stress per peak u (MPa/mm)'])
+  })
+})
+
+describe('interference diagram with several families', () => {
+  const analysis = analyseProject(shaft({ analysis: { elementOrder: 2, elementsPerSegment: 40, mass: 'consistent', modes: 5 } }))
+  const option = interferenceChartOption(interferenceChartInput(analysis), { interactive: true, units: 'SI' })
+  const all = series(option)
+
+  it('draws each family’s natural frequencies in its own line style, with a legend entry per family', () => {
+    const names = ['Axial modes', 'Torsion modes', 'Bending modes']
+    expect((option.legend as { data: string[] }).data).toEqual(names)
+    const families = names.map((n) => all.find((s) => s.name === n) as LineSeriesOption)
+    const types = families.map((s) => JSON.stringify(s.lineStyle?.type))
+    expect(new Set(types).size).toBe(3)
+    const symbols = families.map((s) => s.symbol)
+    expect(new Set(symbols).size).toBe(3)
+    // Each family's lines are its own modes' frequencies, where the resonance check takes them (the reference where known).
+    families.forEach((s, k) => {
+      const key = analysis.families[k].family.key
+      const expected = analysis.modes.filter((m) => m.family === key && !m.rigidBody).map((m) => m.referenceHz ?? m.frequencyHz)
+      const drawn = (s.markLine!.data as { yAxis: number }[]).map((d) => d.yAxis)
+      expect(drawn).toEqual(expected.filter((f) => f <= (option.yAxis as { max: number }).max))
+    })
+  })
+
+  it('marks each conflict in its family’s symbol; the torsion-only excitation conflicts only with torsion', () => {
+    const marks = interferenceConflictMarks(interferenceChartInput(analysis))
+    const torsion = all.find((s) => s.name === 'Conflicts · torsion') as ScatterSeriesOption
+    const bending = all.find((s) => s.name === 'Conflicts · bending') as ScatterSeriesOption
+    expect(torsion.symbol).toBe((all.find((s) => s.name === 'Torsion modes') as LineSeriesOption).symbol)
+    expect(bending.symbol).toBe((all.find((s) => s.name === 'Bending modes') as LineSeriesOption).symbol)
+    expect(torsion.symbol).not.toBe(bending.symbol)
+    const conflicts = analysis.resonance.filter((p) => p.status === 'conflict')
+    expect(marks.map((m) => m.pair)).toEqual(conflicts)
+    expect((torsion.data as unknown[]).length).toBe(conflicts.filter((p) => p.family === 'torsion').length)
+    expect((bending.data as unknown[]).length).toBe(conflicts.filter((p) => p.family === 'bending').length)
+    // A uniform fixed–free shaft's first torsion mode, (1/4L)·√(G/ρ) = 782.6 Hz, is inside the gear mesh's 15 % margin…
+    const t1 = Math.sqrt(200e9 / 2.6 / 7850) / 4
+    expect(Math.abs((t1 - 790) / 790)).toBeLessThan(0.15)
+    // …and so is the fifth bending mode, (βL)² = 14.1372² (Blevins, table 8-1, from memory): yet only torsion is paired with it.
+    const b5 = (14.1372 ** 2 / (2 * Math.PI)) * Math.sqrt((200e9 * (Math.PI / 64) * 0.02 ** 4) / (7850 * (Math.PI / 4) * 0.02 ** 2))
+    expect(Math.abs((b5 - 790) / 790)).toBeLessThan(0.15)
+    const gear = marks.filter((m) => m.pair.band.label === 'Gear mesh')
+    expect(gear.map((m) => m.pair.family)).toEqual(['torsion'])
+    const formatter = (option.tooltip as { formatter: (p: unknown) => string }).formatter
+    expect(formatter({ seriesName: 'Conflicts · torsion', componentType: 'series', dataIndex: 0 })).toContain('Conflict: torsion mode 1 and Gear mesh')
+  })
+
+  it('a single family keeps its one series, no legend and the plain mode labels', () => {
+    const single = interferenceChartOption(interferenceChartInput(analyseProject(demo())), { interactive: false, units: 'SI' })
+    expect(single.legend).toBeUndefined()
+    expect(series(single).map((s) => s.name)).toContain('Natural frequencies')
+    expect(series(single).map((s) => s.name)).toContain('Conflicts')
+  })
+
+  it('says the family in its sentences when asked', () => {
+    const pair = analysis.resonance.find((p) => p.family === 'torsion' && p.status === 'conflict')!
+    expect(pairSentence(pair, true)).toMatch(/^Torsion mode 1 at 783 Hz is 0\.94 % below Gear mesh \(790 Hz\)$/)
+    expect(pairSentence(pair)).toMatch(/^Mode 1 at 783 Hz/)
+  })
+})
+
+describe('convergence chart of a family', () => {
+  it('names the family and its reference on the error axis; bending has Hermite elements only', () => {
+    const project = shaft()
+    const bending = convergenceStudy(project, { family: 'bending', modes: 1, densities: [2, 4, 8] })
+    const option = convergenceChartOption(bending, { interactive: false, units: 'SI', mode: 1 })
+    const against = bending.referenceMethod === 'extrapolated' ? '|f − f_ref| / f_ref' : '|f − f_exact| / f_exact'
+    expect((option.yAxis as { name: string }).name).toBe(`${against}, bending mode 1`)
+    expect((option.legend as { data: string[] }).data.map((n) => n.split(' · ')[0])).toEqual(['Hermite, consistent', 'Hermite, lumped', 'Hermite, mixed'])
+    // Hermite cubics converge as h⁴ in frequency with consistent mass (Hughes, The Finite Element Method, eigenvalue chapter, from memory).
+    expect(bending.series[0].observedOrder[0]).toBeCloseTo(4, 0)
+    const torsion = convergenceStudy(project, { family: 'torsion', modes: 1, densities: [2, 4, 8], masses: ['consistent'] })
+    expect((convergenceChartOption(torsion, { interactive: false, units: 'SI' }).yAxis as { name: string }).name).toContain('torsion mode 1')
+  })
+})

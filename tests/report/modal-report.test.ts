@@ -16,10 +16,12 @@ import { hzToRpm } from '../../core/model/units'
 import { libraryMaterial } from '../../core/model/materials'
 import { modalReportHtml } from '../../core/report/modal-report'
 import { formatFrequency, formatSpeed, formatPercent } from '../../core/report/number-format'
-import { ASSUMPTIONS, CAUTIONS } from '../../core/report/notes-section'
+import { reportAssumptions, reportCautions } from '../../core/report/notes-section'
 import { excitationLabel } from '../../core/analysis/resonance'
 import { modelWarnings } from '../../core/analysis/model-checks'
 import { expectRelative, makeProject, STEEL, uniformBar } from '../helpers'
+import { chainFrequencies, chainFromDocument } from '../chain-reference'
+import { RPM } from '../../core/model/units'
 
 /** The environment's DOMParser (happy-dom), typed from happy-dom since the Node test build has no DOM library. */
 const DOMParser = (globalThis as unknown as { DOMParser: typeof HappyDOMParser }).DOMParser
@@ -39,7 +41,7 @@ function smallStudy(project: Project, modes = 3): ConvergenceStudy {
 }
 
 function render(analysis: ModalAnalysis, convergence?: ConvergenceStudy): { html: string; doc: Document } {
-  const html = modalReportHtml({ analysis, convergence, generatedAt: GENERATED, appVersion: '9.8.7-test' })
+  const html = modalReportHtml({ analysis, convergence: convergence ? [convergence] : undefined, generatedAt: GENERATED, appVersion: '9.8.7-test' })
   return { html, doc: new DOMParser().parseFromString(html, 'text/html') }
 }
 
@@ -112,10 +114,11 @@ describe.each(EXAMPLES)('%s', (file) => {
     expect(doc.querySelector('.model-checks-passed') !== null).toBe(warnings.length === 0)
     expect(doc.querySelectorAll('table.sturm tbody tr').length).toBe(analysis.families[0].sturm.shifts.length)
     expect(doc.querySelector('.reference-method')?.textContent).toContain(analysis.families[0].reference.formulation!)
+    // A rendering check: the lists the report module gives for an axial-only project, as written.
     const assumptions = [...doc.querySelectorAll('ul.assumptions li')].map((li) => li.textContent)
-    expect(assumptions).toEqual([...ASSUMPTIONS])
+    expect(assumptions).toEqual(reportAssumptions({ motions: ['axial'] }))
     const cautions = doc.querySelector('#cautions')?.textContent ?? ''
-    for (const c of CAUTIONS) expect(cautions).toContain(c)
+    for (const c of reportCautions({ motions: ['axial'] })) expect(cautions).toContain(c)
     expect(cautions).toMatch(/engineering aid/)
     expect(cautions).toMatch(/impact/)
     expect(cautions).toMatch(/licensed engineering practice/)
@@ -203,6 +206,56 @@ describe.each(EXAMPLES)('%s', (file) => {
     expect(css).not.toMatch(/url\(|@import|@font-face/i)
     expect(html).not.toMatch(/\b(src|href)\s*=\s*["']?\s*(https?:|\/\/)/i)
     expect(html).not.toMatch(/url\(\s*["']?\s*(https?:|\/\/)/i)
+  })
+})
+
+describe('a version 1 file reads as before: the condensate-pump demo as it was, kept as a fixture', () => {
+  const FIXTURE = 'tests/report/fixtures/condensate-pump-hanger-v1.rodwave.json'
+  const text = readFileSync(FIXTURE, 'utf8')
+  const project = loadExample(FIXTURE)
+  const analysis = analyseProject(project)
+  const { doc } = render(analysis, smallStudy(project))
+  // The demo's frequencies from the tests' own shooting solver over (u, EA u′), without core/ (tests/chain-reference.ts).
+  const expected = chainFrequencies(chainFromDocument(JSON.parse(text)), 4500, 0.5)
+
+  test('the same sections as version 1, in the same order', () => {
+    expect(JSON.parse(text).version).toBe(1)
+    expect([...doc.querySelectorAll('h2')].map((h) => h.textContent)).toEqual([
+      '1 The part as modelled',
+      '2 Materials',
+      '3 Mesh and convergence',
+      '4 Modes',
+      '5 Resonance check',
+      '6 Checks',
+      '7 Assumptions',
+      'Cautions',
+      'Appendix A Convergence data',
+    ])
+    expect(doc.querySelector('.doc-kind')?.textContent).toBe('Axial modal summary')
+    expect(doc.querySelectorAll('section.family').length).toBe(0)
+  })
+
+  test('its exact frequencies, printed to five figures, against the independent shooting solver', () => {
+    const rows = [...doc.querySelectorAll('table.modes tbody tr')].map(cellTexts)
+    expect(rows.length).toBe(project.analysis.modes)
+    expect(expected.length).toBeGreaterThanOrEqual(rows.length)
+    rows.forEach((cells, i) => expectRelative(Number(cells[3].replace(/\u2009/g, '')), expected[i], 5e-5, `demo mode ${i + 1} exact frequency printed`))
+  })
+
+  test('its conflicts: mode 1 against the motor at 100 Hz and the pump ×2, separations from the independent f₁', () => {
+    const rows = [...doc.querySelectorAll('table.pairs tbody tr')].map(cellTexts).filter((r) => r[6].startsWith('conflict'))
+    expect(rows.map((r) => [r[0], r[2], r[3]])).toEqual([
+      ['1', 'Condensate pump speed', '×2'],
+      ['1', 'Motor twice line frequency', ''],
+    ])
+    const f1 = expected[0]
+    // Separation from the nearest point of the band: (f − f_exc)/f_exc, the pump's ×2 band 2 × 2990 rpm / 60 at its top.
+    const pumpTop = 2 * 2990 * RPM
+    expect(Math.abs(Number(rows[0][5].replace('+', '')) - (100 * (f1 - pumpTop)) / pumpTop)).toBeLessThanOrEqual(0.05 + 1e-9)
+    expect(Math.abs(Number(rows[1][5].replace('+', '')) - (100 * (f1 - 100)) / 100)).toBeLessThanOrEqual(0.05 + 1e-9)
+    const verdict = doc.querySelector('.verdict')?.textContent ?? ''
+    expect(verdict).toContain('2 conflicts inside the ±15.0 % margin, axial mode 1.')
+    expect(verdict).toContain('axial motion only')
   })
 })
 

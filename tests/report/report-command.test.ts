@@ -75,6 +75,17 @@ describe('report --out x.html', () => {
     expect(html).toContain('convergence-chart')
   })
 
+  test('a version 2 file: a section per family, a convergence study of each (a rendering check of the structure)', async () => {
+    const out = join(folder, 'families.html')
+    const r = await run(['report', 'tests/report/fixtures/three-family-rod.rodwave.json', '--out', out])
+    expect(r.code, r.stderr).toBe(0)
+    const html = await readFile(out, 'utf8')
+    for (const key of ['axial', 'torsion', 'bending']) expect(html).toContain(`<section id="family-${key}" class="family"`)
+    // Axial and torsion: 2 element orders × 3 mass matrices; bending: Hermite elements × 3 mass matrices.
+    expect(html.match(/<table class="convergence">/g)?.length).toBe(6 + 6 + 3)
+    expect(html.match(/<figure class="chart convergence-chart"/g)?.length).toBe(6)
+  })
+
   test('overrides reach the analysis', async () => {
     const out = join(folder, 'overrides.html')
     const r = await run(['report', EXAMPLES[0], '--out', out, '--order', '2', '--mass', 'lumped', '--modes', '3', '--elements-per-segment', '10'])
