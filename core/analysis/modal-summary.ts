@@ -1,6 +1,7 @@
 /**
  * The modal summary in the two forms other tools read: the `solve --json` document
- * (see README, "Command line") and the modal summary table (CSV, RFC 4180 quoting).
+ * (see README, "Command line") and the modal summary table (CSV, RFC 4180 quoting, text
+ * cells that a spreadsheet would run as a formula neutralised).
  */
 import { hzToRpm } from '../model/units'
 import type { ModalAnalysis } from './modal-analysis'
@@ -86,9 +87,17 @@ export const MODAL_SUMMARY_COLUMNS = [
   'status',
 ] as const
 
+/**
+ * A text cell beginning with one of these is read by spreadsheets as a formula (or turned into
+ * one): =, +, -, @, tab, carriage return (OWASP, "CSV Injection", owasp.org/www-community/attacks/CSV_Injection).
+ */
+const FORMULA_START = /^[=+\-@\t\r]/
+
 function csvField(value: string | number | null): string {
   if (value === null) return ''
-  const text = typeof value === 'number' ? formatNumber(value) : value
+  // Numbers are written by formatNumber and stay numbers (a negative separation is "-6.3", not text);
+  // only text is neutralised, with the leading apostrophe that guidance recommends.
+  const text = typeof value === 'number' ? formatNumber(value) : FORMULA_START.test(value) ? `'${value}` : value
   return /[",\r\n]/.test(text) ? `"${text.replace(/"/g, '""')}"` : text
 }
 
