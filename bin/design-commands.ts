@@ -267,12 +267,14 @@ function responseText(project: Project, units: UnitSystem, request: { forceAt: n
   }
   const stressHead = force === null ? `stress/F (${stress.symbol}/${forceUnit.symbol})` : `stress (${stress.symbol})`
   lines.push(force === null ? 'At each excitation band (per unit force at the force point):' : `At each excitation band (force amplitude ${force} N):`)
-  lines.push(`${'excitation band'.padEnd(40)}${(force === null ? `largest |u/F| (${receptance.symbol})` : `largest |u| (${displacement.symbol})`).padStart(24)}${'at (Hz)'.padStart(11)}${'× static'.padStart(10)}${`largest ${stressHead}`.padStart(26)}${'where (m)'.padStart(11)}`)
-  for (const row of rows) {
+  const names = rows.map((row) => `${echo(bandName(row.band))}, ${bandRange(row)}`)
+  const width = Math.max(16, ...names.map((name) => name.length)) + 2
+  lines.push(`${'excitation band'.padEnd(width)}${(force === null ? `largest |u/F| (${receptance.symbol})` : `largest |u| (${displacement.symbol})`).padStart(24)}${'at (Hz)'.padStart(11)}${'× static'.padStart(10)}${`largest ${stressHead}`.padStart(26)}${'where (m)'.padStart(11)}`)
+  for (const [i, row] of rows.entries()) {
     const peak = force === null ? toDisplay(units, 'receptance', row.peakAmplitude) : toDisplay(units, 'sectionDimension', row.peakAmplitude * force)
     const stressValue = force === null ? (row.stressPerForce * forceUnit.toSI) / stress.toSI : toDisplay(units, 'stress', row.stressPerForce * force)
     lines.push(
-      `${`${echo(bandName(row.band))}, ${bandRange(row)}`.padEnd(40)}${peak.toExponential(4).padStart(24)}${row.peakHz.toPrecision(6).padStart(11)}${(row.amplification === null ? '—' : row.amplification.toPrecision(3)).padStart(10)}${stressValue.toPrecision(4).padStart(26)}${row.stressAt.toPrecision(4).padStart(11)}`,
+      `${names[i].padEnd(width)}${peak.toExponential(4).padStart(24)}${row.peakHz.toPrecision(6).padStart(11)}${(row.amplification === null ? '—' : row.amplification.toPrecision(3)).padStart(10)}${stressValue.toPrecision(4).padStart(26)}${row.stressAt.toPrecision(4).padStart(11)}`,
     )
   }
   lines.push('× static: the largest |u/F| over the band divided by the static |u/F| (0 Hz) between the same points.')
