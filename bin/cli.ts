@@ -1,22 +1,18 @@
 /**
  * The command line over Rodwave's core: `rodwave <command> FILE [options]`.
  * runCli is a plain function over an injected IO, so tests run it without a process.
- * Exit codes: 0 done, 1 invalid input, 2 wrong usage, 3 --fail-on-conflict found a conflict.
+ * Exit codes (EXIT): 0 done, 1 invalid input, 2 wrong usage, 3 --fail-on-conflict found a
+ * conflict, 4 no value in the tuner's range reaches the target.
  */
 import { parseArgs } from 'node:util'
+import { nowMs } from '../core/clock'
 import { readProjectText, formatProjectIssues } from '../core/model/project-schema'
 import type { AnalysisOverrides } from '../core/analysis/modal-analysis'
 import type { Project } from '../core/model/project'
-import { COMMANDS, type CommandContext } from './commands'
+import { COMMANDS, type CommandContext, type InputTiming } from './commands'
+import { CAUTION, capEchoes, echo, echoPath, EXIT, integerOption, OPTIONS, OutOfReachError, UsageError, type CliIo, type CliValues } from './cli-common'
 
-export interface CliIo {
-  readFile(path: string): Promise<string>
-  writeFile(path: string, data: string | Uint8Array): Promise<void>
-  stdout(text: string): void
-  stderr(text: string): void
-}
-
-export class UsageError extends Error {}
+export { CAUTION, ECHO_LIMIT, echo, echoPath, EXIT, integerOption, numberOption, OutOfReachError, UsageError, type CliIo, type CliValues } from './cli-common'
 
 const USAGE = `Usage: rodwave <command> FILE [options]
 
@@ -33,58 +29,15 @@ Options (override the file's analysis):
   --elements-per-segment N
   --modes N
   --fail-on-conflict           exit 3 when any mode conflicts with an excitation
-Run "rodwave <command> --help" for a command's own options.`
+Run "rodwave <command> --help" for a command's own options.
+Exit codes: 0 done, 1 invalid input, 2 wrong usage, 3 a conflict (--fail-on-conflict), 4 the target is out of reach (tune).
 
-const OPTIONS = {
-  json: { type: 'boolean' },
-  csv: { type: 'boolean' },
-  mass: { type: 'string' },
-  order: { type: 'string' },
-  'elements-per-segment': { type: 'string' },
-  modes: { type: 'string' },
-  'fail-on-conflict': { type: 'boolean' },
-  out: { type: 'string' },
-  parameter: { type: 'string' },
-  min: { type: 'string' },
-  max: { type: 'string' },
-  mode: { type: 'string' },
-  target: { type: 'string' },
-  samples: { type: 'string' },
-  seed: { type: 'string' },
-  'force-at': { type: 'string' },
-  'response-at': { type: 'string' },
-  from: { type: 'string' },
-  to: { type: 'string' },
-  points: { type: 'string' },
-  help: { type: 'boolean', short: 'h' },
-} as const
-
-export type CliValues = { [K in keyof typeof OPTIONS]?: (typeof OPTIONS)[K]['type'] extends 'boolean' ? boolean : string }
-
-/** A whole number option within bounds, or a usage error naming the flag. */
-export function integerOption(values: CliValues, name: keyof CliValues, min: number, max: number): number | undefined {
-  const raw = values[name]
-  if (raw === undefined) return undefined
-  const v = Number(raw)
-  if (typeof raw !== 'string' || !Number.isInteger(v) || v < min || v > max) {
-    throw new UsageError(`--${name} must be a whole number from ${min} to ${max} (got "${String(raw)}")`)
-  }
-  return v
-}
-
-/** A finite number option, or a usage error naming the flag. */
-export function numberOption(values: CliValues, name: keyof CliValues): number | undefined {
-  const raw = values[name]
-  if (raw === undefined) return undefined
-  const v = Number(raw)
-  if (typeof raw !== 'string' || raw.trim() === '' || !Number.isFinite(v)) throw new UsageError(`--${name} must be a number (got "${String(raw)}")`)
-  return v
-}
+${CAUTION}`
 
 function overridesFrom(values: CliValues): AnalysisOverrides {
   const overrides: AnalysisOverrides = {}
   if (values.mass !== undefined) {
-    if (!['consistent', 'lumped', 'mixed'].includes(values.mass)) throw new UsageError(`--mass must be consistent, lumped or mixed (got "${values.mass}")`)
+    if (!['consistent', 'lumped', 'mixed'].includes(values.mass)) throw new UsageError(`--mass must be consistent, lumped or mixed (got "${echo(values.mass)}")`)
     overrides.mass = values.mass as AnalysisOverrides['mass']
   }
   const order = integerOption(values, 'order', 1, 2)
@@ -96,32 +49,39 @@ function overridesFrom(values: CliValues): AnalysisOverrides {
   return overrides
 }
 
-export async function runCli(argv: readonly string[], io: CliIo): Promise<number> {
+/** Where the time before the command went, when the command line runs as a process. */
+export interface RunOptions {
+  /** Process start to the command line's first statement: Node's own start and loading Rodwave, ms. */
+  readonly startupMs?: number
+}
+
+export async function runCli(argv: readonly string[], io: CliIo, options: RunOptions = {}): Promise<number> {
+  const startedAt = nowMs()
   let parsed
   try {
     parsed = parseArgs({ args: [...argv], options: OPTIONS, allowPositionals: true, strict: true })
   } catch (error) {
-    io.stderr(`rodwave: ${error instanceof Error ? error.message : String(error)}\n\n${USAGE}\n`)
-    return 2
+    io.stderr(`rodwave: ${capEchoes(error instanceof Error ? error.message : String(error))}\n\n${USAGE}\n`)
+    return EXIT.usage
   }
   const [commandName, file, ...extra] = parsed.positionals
   const values = parsed.values as CliValues
   if (!commandName || (values.help && !commandName)) {
     ;(values.help ? io.stdout : io.stderr)(`${USAGE}\n`)
-    return values.help ? 0 : 2
+    return values.help ? EXIT.done : EXIT.usage
   }
-  const command = COMMANDS[commandName]
+  const command = Object.hasOwn(COMMANDS, commandName) ? COMMANDS[commandName] : undefined
   if (!command) {
-    io.stderr(`rodwave: unknown command "${commandName}"\n\n${USAGE}\n`)
-    return 2
+    io.stderr(`rodwave: unknown command "${echo(commandName)}"\n\n${USAGE}\n`)
+    return EXIT.usage
   }
   if (values.help) {
-    io.stdout(`Usage: rodwave ${commandName} FILE ${command.usage}\n${command.summary}\n`)
-    return 0
+    io.stdout(`Usage: rodwave ${commandName} FILE ${command.usage}\n${command.summary}\n${command.help ? `\n${command.help}\n` : ''}\n${CAUTION}\n`)
+    return EXIT.done
   }
   if (!file || extra.length) {
     io.stderr(`rodwave: ${commandName} needs exactly one project FILE\nUsage: rodwave ${commandName} FILE ${command.usage}\n`)
-    return 2
+    return EXIT.usage
   }
   let overrides: AnalysisOverrides
   try {
@@ -129,10 +89,11 @@ export async function runCli(argv: readonly string[], io: CliIo): Promise<number
   } catch (error) {
     if (error instanceof UsageError) {
       io.stderr(`rodwave: ${error.message}\n`)
-      return 2
+      return EXIT.usage
     }
     throw error
   }
+  const readStart = nowMs()
   let text: string
   try {
     text = await io.readFile(file)
@@ -140,26 +101,32 @@ export async function runCli(argv: readonly string[], io: CliIo): Promise<number
     const code = (error as { code?: string }).code
     const reason =
       code === 'ENOENT' ? 'no such file' : code === 'EISDIR' ? 'it is a folder' : code === 'EACCES' ? 'permission denied' : error instanceof Error ? error.message : String(error)
-    io.stderr(`rodwave: cannot read ${file}: ${reason}\n`)
-    return 1
+    io.stderr(`rodwave: cannot read ${echoPath(file)}: ${reason}\n`)
+    return EXIT.invalidInput
   }
+  const validateStart = nowMs()
   const read = readProjectText(text)
   if (!read.ok) {
-    io.stderr(`rodwave: ${file} is not a valid Rodwave project:\n${formatProjectIssues(read.issues)}\n`)
-    return 1
+    io.stderr(`rodwave: ${echoPath(file)} is not a valid Rodwave project:\n${formatProjectIssues(read.issues)}\n`)
+    return EXIT.invalidInput
   }
   const project: Project = read.project
-  const context: CommandContext = { project, file, values, overrides, io }
+  const timing: InputTiming = { startedAt, ...options, readMs: validateStart - readStart, validateMs: nowMs() - validateStart }
+  const context: CommandContext = { project, file, values, overrides, io, timing }
   try {
     return await command.run(context)
   } catch (error) {
     if (error instanceof UsageError) {
       io.stderr(`rodwave: ${error.message}\n`)
-      return 2
+      return EXIT.usage
+    }
+    if (error instanceof OutOfReachError) {
+      io.stderr(`rodwave: ${error.message}\n`)
+      return EXIT.targetOutOfReach
     }
     if (error instanceof RangeError) {
       io.stderr(`rodwave: ${error.message}\n`)
-      return 1
+      return EXIT.invalidInput
     }
     throw error
   }

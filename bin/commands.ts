@@ -4,10 +4,19 @@ import { convergenceStudy, type ConvergenceStudy } from '../core/analysis/conver
 import { modalSummaryCsv, solveDocument } from '../core/analysis/modal-summary'
 import { estimateDegreesOfFreedom } from '../core/model/project-schema'
 import { LIMITS, type ElementOrder, type MassMatrixKind, type Project } from '../core/model/project'
-import type { CliIo, CliValues } from './cli'
-import { UsageError } from './cli'
-import { reportCommand } from './report-command'
+import { nowMs } from '../core/clock'
+import type { CliIo, CliValues } from './cli-common'
+import { CAUTION, UsageError } from './cli-common'
 import { DESIGN_COMMANDS } from './design-commands'
+
+/** What happened before the command ran, for `solve`'s timing. */
+export interface InputTiming {
+  /** nowMs() when runCli began. */
+  readonly startedAt: number
+  readonly startupMs?: number
+  readonly readMs: number
+  readonly validateMs: number
+}
 
 export interface CommandContext {
   readonly project: Project
@@ -15,11 +24,14 @@ export interface CommandContext {
   readonly values: CliValues
   readonly overrides: AnalysisOverrides
   readonly io: CliIo
+  readonly timing?: InputTiming
 }
 
 export interface Command {
   readonly summary: string
   readonly usage: string
+  /** More lines for `rodwave <command> --help`: what the options mean. */
+  readonly help?: string
   run(context: CommandContext): Promise<number>
 }
 
@@ -37,10 +49,14 @@ function projectWithOverrides(project: Project, overrides: AnalysisOverrides): P
 const solve: Command = {
   summary: 'modes, reference comparison, effective mass, resonance check',
   usage: '[--json | --csv] [--mass K] [--order 1|2] [--elements-per-segment N] [--modes N] [--fail-on-conflict]',
-  async run({ project, values, overrides, io }) {
+  async run({ project, values, overrides, io, timing }) {
     if (values.json && values.csv) throw new UsageError('choose one of --json and --csv')
+    const analyseStart = nowMs()
     const analysis = analyseProject(projectWithOverrides(project, overrides), overrides)
-    const document = solveDocument(analysis)
+    const document = solveDocument(analysis, {
+      analyseMs: nowMs() - analyseStart,
+      ...(timing ? { startupMs: timing.startupMs, readMs: timing.readMs, validateMs: timing.validateMs, startedAt: timing.startedAt } : {}),
+    })
     if (values.csv) io.stdout(modalSummaryCsv(analysis))
     else io.stdout(`${JSON.stringify(document, null, 2)}\n`)
     for (const warning of document.warnings) io.stderr(`rodwave: warning: ${warning.message}\n`)
@@ -66,12 +82,22 @@ const converge: Command = {
     })
     if (values.json) io.stdout(`${JSON.stringify(study, null, 2)}\n`)
     else if (values.csv) io.stdout(convergenceCsv(study))
-    else io.stdout(convergenceText(project, study))
+    else io.stdout(`${convergenceText(project, study)}\n${CAUTION}\n`)
     return 0
   },
 }
 
-export const COMMANDS: Record<string, Command> = { solve, converge, report: reportCommand, ...DESIGN_COMMANDS }
+// The report and its chart renderer (ECharts) are loaded only when a report is asked for.
+const report: Command = {
+  summary: 'the modal summary report: one self-contained HTML file, or PDF where a browser engine is available',
+  usage: '--out PATH.html|PATH.pdf [--mass K] [--order 1|2] [--elements-per-segment N] [--modes N] [--fail-on-conflict]',
+  async run(context) {
+    const { runReport } = await import('./report-command')
+    return runReport(context)
+  },
+}
+
+export const COMMANDS: Record<string, Command> = { solve, converge, report, ...DESIGN_COMMANDS }
 
 function seriesName(order: ElementOrder, mass: MassMatrixKind): string {
   return `${order === 1 ? '2-node' : '3-node'} elements, ${mass} mass`

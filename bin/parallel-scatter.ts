@@ -6,6 +6,7 @@
 import { Worker } from 'node:worker_threads'
 import { availableParallelism } from 'node:os'
 import type { Project } from '../core/model/project'
+import { SCATTER_WORKER_ROLE } from './scatter-worker'
 
 interface Reply {
   readonly id: number
@@ -35,9 +36,17 @@ export class ScatterPool {
 
   /** Starts `size` worker threads (default: one per core). */
   static start(size = availableParallelism()): ScatterPool {
-    const entry = new URL('./scatter-worker.ts', import.meta.url).href
-    // The command line runs from TypeScript sources: the bootstrap registers the loader in each thread.
-    const workers = Array.from({ length: Math.max(1, size) }, () => new Worker(new URL('./worker-bootstrap.mjs', import.meta.url), { workerData: { entry } }))
+    const count = Math.max(1, size)
+    const here = import.meta.url
+    // Built (dist/cli/rodwave.mjs): each thread runs the command line's own file, which serves the
+    // jobs when it sees its role. From the TypeScript sources (tests, the benchmark) a bootstrap
+    // registers the TypeScript loader in the thread first.
+    const fromSources = here.endsWith('.ts')
+    const workers = Array.from({ length: count }, () =>
+      fromSources
+        ? new Worker(new URL('./worker-bootstrap.mjs', here), { workerData: { entry: new URL('./scatter-worker.ts', here).href, role: SCATTER_WORKER_ROLE } })
+        : new Worker(new URL(here), { workerData: { role: SCATTER_WORKER_ROLE } }),
+    )
     return new ScatterPool(workers)
   }
 

@@ -18,8 +18,8 @@ import { LIMITS, type Project } from '../core/model/project'
 import { estimateDegreesOfFreedom } from '../core/model/project-schema'
 import { modalReportHtml } from '../core/report/modal-report'
 import { writeFileAtomic } from '../electron/atomic-write'
-import { UsageError } from './cli'
-import type { Command } from './commands'
+import { echoPath, UsageError } from './cli-common'
+import type { CommandContext } from './commands'
 
 /** The convergence study in a report covers at most this many modes (one table column each)… */
 export const REPORT_CONVERGENCE_MODES = 6
@@ -93,13 +93,17 @@ export async function printHtmlToPdf(browserPath: string, html: string): Promise
   }
 }
 
+/** Rodwave's version from its package.json: one folder up from bin/, two from the built dist/cli/. */
 async function appVersion(): Promise<string> {
-  try {
-    const pkg = JSON.parse(await readFile(new URL('../package.json', import.meta.url), 'utf8')) as { version?: unknown }
-    return typeof pkg.version === 'string' ? pkg.version : 'unknown version'
-  } catch {
-    return 'unknown version'
+  for (const relative of ['../package.json', '../../package.json']) {
+    try {
+      const pkg = JSON.parse(await readFile(new URL(relative, import.meta.url), 'utf8')) as { name?: unknown; version?: unknown }
+      if (pkg.name === 'rodwave' && typeof pkg.version === 'string') return pkg.version
+    } catch {
+      // not there: try the next place
+    }
   }
+  return 'unknown version'
 }
 
 type ReportFormat = 'html' | 'pdf'
@@ -108,82 +112,79 @@ function formatOf(out: string): ReportFormat {
   const extension = extname(out).toLowerCase()
   if (extension === '.html' || extension === '.htm') return 'html'
   if (extension === '.pdf') return 'pdf'
-  throw new UsageError(`--out must end in .html, .htm or .pdf (got "${out}")`)
+  throw new UsageError(`--out must end in .html, .htm or .pdf (got "${echoPath(out)}")`)
 }
 
 function describeWriteError(path: string, error: unknown): string {
   const code = (error as { code?: string }).code
   const reason =
     code === 'ENOENT' ? 'the folder does not exist' : code === 'EACCES' || code === 'EPERM' ? 'permission denied' : code === 'EISDIR' ? 'it is a folder' : error instanceof Error ? error.message : String(error)
-  return `rodwave: cannot write ${path}: ${reason}\n`
+  return `rodwave: cannot write ${echoPath(path)}: ${reason}\n`
 }
 
-export const reportCommand: Command = {
-  summary: 'the modal summary report: one self-contained HTML file, or PDF where a browser engine is available',
-  usage: '--out PATH.html|PATH.pdf [--mass K] [--order 1|2] [--elements-per-segment N] [--modes N] [--fail-on-conflict]',
-  async run({ project, values, overrides, io }) {
-    const out = values.out
-    if (out === undefined || out.trim() === '') throw new UsageError('report needs --out PATH (a .html or .pdf file)')
-    if (values.json || values.csv) throw new UsageError('report writes a file; --json and --csv do not apply')
-    const format = formatOf(out)
+/** `report FILE --out PATH`: writes the report and returns the exit code. */
+export async function runReport({ project, values, overrides, io }: CommandContext): Promise<number> {
+  const out = values.out
+  if (out === undefined || out.trim() === '') throw new UsageError('report needs --out PATH (a .html or .pdf file)')
+  if (values.json || values.csv) throw new UsageError('report writes a file; --json and --csv do not apply')
+  const format = formatOf(out)
 
-    const settings = effectiveSettings(project, overrides)
-    const solved: Project = { ...project, analysis: settings }
-    const dofs = estimateDegreesOfFreedom(solved)
-    if (dofs > LIMITS.maxDegreesOfFreedom) {
-      throw new UsageError(`--elements-per-segment gives about ${dofs.toExponential(2)} unknowns; Rodwave solves at most ${LIMITS.maxDegreesOfFreedom.toLocaleString('en-US')}`)
+  const settings = effectiveSettings(project, overrides)
+  const solved: Project = { ...project, analysis: settings }
+  const dofs = estimateDegreesOfFreedom(solved)
+  if (dofs > LIMITS.maxDegreesOfFreedom) {
+    throw new UsageError(`--elements-per-segment gives about ${dofs.toExponential(2)} unknowns; Rodwave solves at most ${LIMITS.maxDegreesOfFreedom.toLocaleString('en-US')}`)
+  }
+  const analysis = analyseProject(solved, overrides)
+  // One study per family analysed (analysis.project carries the motions the command line chose).
+  const convergence: ConvergenceStudy[] = []
+  for (const { family } of analysis.families) {
+    try {
+      convergence.push(convergenceStudy(analysis.project, { family: family.key, modes: Math.min(settings.modes, REPORT_CONVERGENCE_MODES), maxDofs: REPORT_CONVERGENCE_MAX_DOFS }))
+    } catch (error) {
+      if (!(error instanceof RangeError)) throw error
+      io.stderr(`rodwave: warning: the convergence study of ${family.key} stopped (${error.message}); the report leaves it out\n`)
     }
-    const analysis = analyseProject(solved, overrides)
-    // One study per family analysed (analysis.project carries the motions the command line chose).
-    const convergence: ConvergenceStudy[] = []
-    for (const { family } of analysis.families) {
-      try {
-        convergence.push(convergenceStudy(analysis.project, { family: family.key, modes: Math.min(settings.modes, REPORT_CONVERGENCE_MODES), maxDofs: REPORT_CONVERGENCE_MAX_DOFS }))
-      } catch (error) {
-        if (!(error instanceof RangeError)) throw error
-        io.stderr(`rodwave: warning: the convergence study of ${family.key} stopped (${error.message}); the report leaves it out\n`)
-      }
-    }
-    const html = modalReportHtml({ analysis, convergence, generatedAt: new Date(), appVersion: await appVersion() })
+  }
+  const html = modalReportHtml({ analysis, convergence, generatedAt: new Date(), appVersion: await appVersion() })
 
-    let written: string
-    if (format === 'pdf') {
-      const engine = await findBrowserEngine()
-      let pdf: Uint8Array | null = null
-      let problem = ''
-      if (engine.found) {
-        try {
-          pdf = await printHtmlToPdf(engine.path, html)
-        } catch (error) {
-          problem = error instanceof Error ? error.message : String(error)
-        }
-      } else {
-        problem = `no browser engine to print PDF: ${engine.reason}`
-      }
-      written = pdf ? out : `${out.slice(0, -extname(out).length)}.html`
+  let written: string
+  if (format === 'pdf') {
+    const engine = await findBrowserEngine()
+    let pdf: Uint8Array | null = null
+    let problem = ''
+    if (engine.found) {
       try {
-        await writeFileAtomic(written, pdf ?? html)
+        pdf = await printHtmlToPdf(engine.path, html)
       } catch (error) {
-        io.stderr(describeWriteError(written, error))
-        return 1
+        problem = error instanceof Error ? error.message : String(error)
       }
-      if (!pdf) io.stderr(`rodwave: ${problem}.\nrodwave: wrote the HTML report to ${written} instead; open it in a browser and print it to PDF (A4).\n`)
     } else {
-      written = out
-      try {
-        await writeFileAtomic(written, html)
-      } catch (error) {
-        io.stderr(describeWriteError(written, error))
-        return 1
-      }
+      problem = `no browser engine to print PDF: ${engine.reason}`
     }
-    io.stdout(`${written}\n`)
-    for (const warning of modelWarnings(analysis)) io.stderr(`rodwave: warning: ${warning.message}\n`)
-    const conflicts = analysis.resonance.filter((p) => p.status === 'conflict')
-    if (values['fail-on-conflict'] && conflicts.length > 0) {
-      io.stderr(`rodwave: ${conflicts.length} mode–excitation pair(s) inside the ${(100 * project.margin).toFixed(1)} % margin\n`)
-      return 3
+    written = pdf ? out : `${out.slice(0, -extname(out).length)}.html`
+    try {
+      await writeFileAtomic(written, pdf ?? html)
+    } catch (error) {
+      io.stderr(describeWriteError(written, error))
+      return 1
     }
-    return 0
-  },
+    if (!pdf) io.stderr(`rodwave: ${problem}.\nrodwave: wrote the HTML report to ${written} instead; open it in a browser and print it to PDF (A4).\n`)
+  } else {
+    written = out
+    try {
+      await writeFileAtomic(written, html)
+    } catch (error) {
+      io.stderr(describeWriteError(written, error))
+      return 1
+    }
+  }
+  io.stdout(`${written}\n`)
+  for (const warning of modelWarnings(analysis)) io.stderr(`rodwave: warning: ${warning.message}\n`)
+  const conflicts = analysis.resonance.filter((p) => p.status === 'conflict')
+  if (values['fail-on-conflict'] && conflicts.length > 0) {
+    io.stderr(`rodwave: ${conflicts.length} mode–excitation pair(s) inside the ${(100 * project.margin).toFixed(1)} % margin\n`)
+    return 3
+  }
+  return 0
 }

@@ -1,7 +1,8 @@
-// Starts a TypeScript worker: registers tsx's loader in this thread, then imports the entry
-// (the command line runs from TypeScript sources, and worker threads do not inherit loaders).
+// Starts a TypeScript worker from the sources (tests, the benchmark): registers tsx's loader in
+// this thread, since worker threads do not inherit loaders, then serves the scatter jobs.
 import { register } from 'tsx/esm/api'
 import { workerData } from 'node:worker_threads'
 
 register()
-await import(workerData.entry)
+const worker = await import(workerData.entry)
+worker.serveScatterJobs()

@@ -1,12 +1,13 @@
 /**
  * The modal summary in the two forms other tools read: the `solve --json` document
- * (see README, "Command line") and the modal summary table (CSV, RFC 4180 quoting).
+ * (see README, "Command line") and the modal summary table (CSV, RFC 4180 quoting, text
+ * cells that a spreadsheet would run as a formula neutralised).
  */
+import { nowMs } from '../clock'
 import { hzToRpm } from '../model/units'
 import type { ModalAnalysis } from './modal-analysis'
 import { bandName, closestPair } from './resonance'
 import { modelWarnings } from './model-checks'
-import { nowMs } from '../clock'
 
 export interface SolveDocument {
   title: string
@@ -44,16 +45,68 @@ export interface SolveDocument {
   checks: { sturmCount: { passed: boolean; shifts: number[]; counts: number[]; expected: number[]; families: Record<string, { passed: boolean; shifts: number[]; counts: number[]; expected: number[] }> } }
   /** Plain-language warnings about trust in the results (model-checks.ts); empty when none. */
   warnings: { code: string; message: string }[]
-  timing: { assembleMs: number; solveMs: number; referenceMs: number; checksMs: number }
+  timing: SolveTiming
 }
 
-export function solveDocument(analysis: ModalAnalysis): SolveDocument {
+/**
+ * Wall time of each phase of a solve, ms. The phases before the analysis are known only to the
+ * front end that read the file, which passes them in; writing the document out comes after it.
+ */
+export interface SolveTiming {
+  /** Process start to the command line's first statement (Node's start, loading Rodwave). */
+  startupMs?: number
+  /** Reading the project file. */
+  readMs?: number
+  /** Parsing and checking it against the file format. */
+  validateMs?: number
+  /** Meshing and assembling stiffness and mass. */
+  assembleMs: number
+  /** The eigen solver, with its Sturm checks. */
+  solveMs: number
+  /** The exact reference. */
+  referenceMs: number
+  /** The rest of the analysis: frequencies, effective mass, the resonance check (when the front end timed the whole analysis). */
+  resultsMs?: number
+  /** The trust checks behind `warnings` (residuals, orthogonality, conditioning). */
+  checksMs: number
+  /** From the front end's start (or the analysis) to the finished document. */
+  totalMs: number
+}
+
+/** Phases a front end measured around the analysis, for the document's timing. */
+export interface SolvePhases {
+  readonly startupMs?: number
+  readonly readMs?: number
+  readonly validateMs?: number
+  /** The whole analyseProject call, so the time after the reference can be given. */
+  readonly analyseMs?: number
+  /** nowMs() when the front end began (after startup). */
+  readonly startedAt?: number
+}
+
+export function solveDocument(analysis: ModalAnalysis, phases: SolvePhases = {}): SolveDocument {
   const s = analysis.settings
   const primary = analysis.families.find((f) => f.family.motion === 'axial') ?? analysis.families[0]
   const sturmOf = (f: (typeof analysis.families)[number]) => ({ passed: f.sturm.passed, shifts: f.sturm.shifts, counts: f.sturm.counts, expected: f.sturm.expected })
-  const t0 = nowMs()
+  const checksStart = nowMs()
   const warnings = modelWarnings(analysis).map((w) => ({ code: w.code, message: w.message }))
-  const checksMs = analysis.timing.checksMs + (nowMs() - t0)
+  const finished = nowMs()
+  const { assembleMs, solveMs, referenceMs } = analysis.timing
+  // The checks of the analysis itself (buckling) and of the solved modes.
+  const checksMs = analysis.timing.checksMs + (finished - checksStart)
+  const timing: SolveTiming = {
+    ...(phases.startupMs !== undefined ? { startupMs: phases.startupMs } : {}),
+    ...(phases.readMs !== undefined ? { readMs: phases.readMs } : {}),
+    ...(phases.validateMs !== undefined ? { validateMs: phases.validateMs } : {}),
+    assembleMs,
+    solveMs,
+    referenceMs,
+    ...(phases.analyseMs !== undefined ? { resultsMs: Math.max(0, phases.analyseMs - assembleMs - solveMs - referenceMs) } : {}),
+    checksMs,
+    totalMs:
+      (phases.startupMs ?? 0) +
+      (phases.startedAt !== undefined ? finished - phases.startedAt : (phases.readMs ?? 0) + (phases.validateMs ?? 0) + (phases.analyseMs ?? assembleMs + solveMs + referenceMs) + checksMs),
+  }
   return {
     title: analysis.project.title ?? '',
     motions: [...analysis.project.motions],
@@ -109,7 +162,7 @@ export function solveDocument(analysis: ModalAnalysis): SolveDocument {
       },
     },
     warnings,
-    timing: { assembleMs: analysis.timing.assembleMs, solveMs: analysis.timing.solveMs, referenceMs: analysis.timing.referenceMs, checksMs },
+    timing,
   }
 }
 
@@ -128,9 +181,17 @@ export const MODAL_SUMMARY_COLUMNS = [
   'plane',
 ] as const
 
+/**
+ * A text cell beginning with one of these is read by spreadsheets as a formula (or turned into
+ * one): =, +, -, @, tab, carriage return (OWASP, "CSV Injection", owasp.org/www-community/attacks/CSV_Injection).
+ */
+const FORMULA_START = /^[=+\-@\t\r]/
+
 function csvField(value: string | number | null): string {
   if (value === null) return ''
-  const text = typeof value === 'number' ? formatNumber(value) : value
+  // Numbers are written by formatNumber and stay numbers (a negative separation is "-6.3", not text);
+  // only text is neutralised, with the leading apostrophe that guidance recommends.
+  const text = typeof value === 'number' ? formatNumber(value) : FORMULA_START.test(value) ? `'${value}` : value
   return /[",\r\n]/.test(text) ? `"${text.replace(/"/g, '""')}"` : text
 }
 

@@ -48,6 +48,9 @@ export interface TuneResult extends TunePoint {
 
 export class TuneError extends Error {}
 
+/** The search ran and no value in the range puts the mode on the target. */
+export class TargetOutOfReachError extends TuneError {}
+
 /** The SI unit of each parameter kind, for messages (parameters are always SI). */
 const SI_UNIT: Partial<Record<string, string>> = { length: 'm', sectionDimension: 'm', area: 'm²', modulus: 'Pa', density: 'kg/m³', mass: 'kg', stiffness: 'N/m' }
 
@@ -57,7 +60,8 @@ export function tuneParameter(project: Project, request: TuneRequest): TuneResul
   const parameter = findParameter(project, request.parameter)
   if (!parameter) throw new TuneError(`"${request.parameter}" is not a parameter of this project (see the sensitivity command for the list)`)
   const { min, max } = request
-  if (!(Number.isFinite(min) && Number.isFinite(max) && min > 0 && max > min)) throw new TuneError('the bounds must satisfy 0 < min < max')
+  const boundsProblem = checkBounds(project, parameter, min, max)
+  if (boundsProblem) throw new TuneError(boundsProblem)
   const modes = Math.max(request.modes ?? project.analysis.modes, request.mode ?? 1)
   const families = analysedFamilies(project).filter((f) => !request.motion || f.motion === request.motion)
   if (families.length === 0) throw new TuneError(`the project does not analyse ${request.motion ?? 'any motion'}`)
@@ -100,7 +104,7 @@ export function tuneParameter(project: Project, request: TuneRequest): TuneResul
     if (i < 0) {
       const range = values.map((v) => v + target)
       const unit = SI_UNIT[parameter.quantity] ?? ''
-      throw new TuneError(
+      throw new TargetOutOfReachError(
         `no value of ${parameter.label} between ${min} and ${max} ${unit} puts mode ${mode} on ${target} Hz; over that range it moves between ${Math.min(...range).toPrecision(6)} and ${Math.max(...range).toPrecision(6)} Hz`.replace('  ', ' '),
       )
     }
@@ -118,6 +122,29 @@ export function tuneParameter(project: Project, request: TuneRequest): TuneResul
   const refined = brentMinimize(objective, lo, hi, 1e-10)
   const value = refined.fx <= scores[best] ? refined.x : grid[best]
   return finish(parameter, 'separation', point(value), before, evaluations, layout)
+}
+
+/**
+ * The range a parameter may be searched over. A tube's bore may close to 0 (a solid bar, a valid
+ * part) and must stay below the outer diameter, which in turn must stay above the bore; every
+ * other parameter (lengths, dimensions, moduli, densities, masses, stiffnesses) must stay > 0,
+ * as the file format requires.
+ */
+function checkBounds(project: Project, parameter: DesignParameter, min: number, max: number): string | null {
+  if (!(Number.isFinite(min) && Number.isFinite(max))) return 'the bounds must be finite numbers'
+  const target = parameter.target
+  const section = target.kind === 'sectionDimension' ? project.segments[target.segment].section : null
+  if (section?.shape === 'tube' && target.kind === 'sectionDimension' && target.dimension === 'innerDiameter') {
+    if (!(min >= 0 && max > min && max < section.outerDiameter)) {
+      return `the bounds of a bore must satisfy 0 ≤ min < max < ${section.outerDiameter} m (its outer diameter; 0 is a solid bar)`
+    }
+    return null
+  }
+  if (!(min > 0 && max > min)) return 'the bounds must satisfy 0 < min < max'
+  if (section?.shape === 'tube' && target.kind === 'sectionDimension' && target.dimension === 'outerDiameter' && !(min > section.innerDiameter)) {
+    return `the outer diameter's lower bound must be above the bore, ${section.innerDiameter} m`
+  }
+  return null
 }
 
 function finish(parameter: DesignParameter, goal: 'target' | 'separation', at: TunePoint, before: TunePoint, evaluations: number, layout: { family: string; mode: number }[]): TuneResult {
