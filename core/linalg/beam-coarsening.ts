@@ -156,6 +156,11 @@ function galerkinProduct(a: SymmetricBandMatrix, map: BeamCoarsening): Symmetric
   return out
 }
 
+/** Pᵀ M P alone (the mass has no cancellation to fear). */
+export function coarsenBeamMass(mass: SymmetricBandMatrix, map: BeamCoarsening): SymmetricBandMatrix {
+  return galerkinProduct(mass, map)
+}
+
 export function coarsenBeamPencil(pencil: BandPencil, map: BeamCoarsening): BandPencil {
   return { stiffness: galerkinProduct(pencil.stiffness, map), mass: galerkinProduct(pencil.mass, map) }
 }

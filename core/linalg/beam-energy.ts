@@ -13,6 +13,7 @@
  * so its forms follow from the fine ones exactly (coarsenBeamForms).
  */
 import { beamDofIndex, type BeamCoarsening, type BeamLayout } from './beam-coarsening'
+import { createBandMatrix, type SymmetricBandMatrix } from './symmetric-band-matrix'
 
 export interface BeamForms {
   readonly layout: BeamLayout
@@ -188,4 +189,199 @@ export function coarsenBeamForms(fine: BeamForms, map: BeamCoarsening): BeamForm
     groundedIndex,
     groundedWeight,
   }
+}
+
+/**
+ * out = K x from the forms: each element's strains, its forces (the 2 × 2 and 3 × 3 forms applied
+ * to them), spread back to the element's unknowns (the transpose of the strain map); grounded
+ * terms k p (pᵀx). The forces come from small strains, so for smooth x the sum is accurate where
+ * the assembled K would cancel (used to refine solves, inverse-iteration.ts).
+ */
+export function beamFormsApply(data: BeamForms, x: Float64Array, out: Float64Array): Float64Array {
+  const { layout, index, forms, formOfInterval, preload } = data
+  const xs = layout.x
+  const scale = layout.rotationScale
+  out.fill(0)
+  const at = (i: number) => (i >= 0 ? x[i] : 0)
+  const add = (i: number, v: number) => {
+    if (i >= 0) out[i] += v
+  }
+  for (let e = 0; e + 1 < xs.length; e++) {
+    const h = xs[e + 1] - xs[e]
+    const f = FORM_SIZE * formOfInterval[e]
+    const ia = 2 * e
+    const iwa = index[ia], isa = index[ia + 1], iwb = index[ia + 2], isb = index[ia + 3] // prettier-ignore
+    const sa = at(isa)
+    const sb = at(isb)
+    const dw = at(iwb) - at(iwa)
+    const d1 = dw - (h * sa) / scale
+    const d2 = sb - sa
+    const g1 = forms[f] * d1 + forms[f + 1] * d2
+    const g2 = forms[f + 1] * d1 + forms[f + 2] * d2
+    add(iwb, g1)
+    add(iwa, -g1)
+    add(isa, (-h / scale) * g1 - g2)
+    add(isb, g2)
+    if (preload !== 0) {
+      const v1 = forms[f + 3] * sa + forms[f + 4] * dw + forms[f + 5] * sb
+      const v2 = forms[f + 4] * sa + forms[f + 6] * dw + forms[f + 7] * sb
+      const v3 = forms[f + 5] * sa + forms[f + 7] * dw + forms[f + 8] * sb
+      add(isa, preload * v1)
+      add(iwb, preload * v2)
+      add(iwa, -preload * v2)
+      add(isb, preload * v3)
+    }
+  }
+  const { groundedStiffness, groundedIndex, groundedWeight } = data
+  for (let g = 0; g < groundedStiffness.length; g++) {
+    let p = 0
+    for (let q = 4 * g; q < 4 * g + 4; q++) if (groundedIndex[q] >= 0) p += groundedWeight[q] * x[groundedIndex[q]]
+    const force = groundedStiffness[g] * p
+    for (let q = 4 * g; q < 4 * g + 4; q++) if (groundedIndex[q] >= 0) out[groundedIndex[q]] += groundedWeight[q] * force
+  }
+  return out
+}
+
+/**
+ * The stiffness K of the level described by the forms, assembled from them (element by element,
+ * K_e = Rᵀ S R + P Qᵀ G Q with R and Q the strain maps, plus the grounded terms), in banded
+ * row-sum storage. A Galerkin product PᵀKP formed from the fine level's assembled K would sum
+ * entries of size EI/h³ into ones of size EI/H³: r³ times the relative round-off on each
+ * coarsening by r. From the forms, each coarse entry is made at its own scale.
+ */
+export function assembleFromForms(data: BeamForms, order: number): SymmetricBandMatrix {
+  const { layout, index, forms, formOfInterval, preload } = data
+  const xs = layout.x
+  const scale = layout.rotationScale
+  const out = createBandMatrix(order, Math.min(3, Math.max(1, order - 1)))
+  const element = new Float64Array(16)
+  const dofs = new Int32Array(4)
+  const addMatrix = (): void => {
+    for (let p = 0; p < 4; p++) {
+      const i = dofs[p]
+      if (i < 0) continue
+      let row = 0
+      for (let q = 0; q < 4; q++) {
+        const j = dofs[q]
+        if (j < 0) continue
+        const v = element[4 * p + q]
+        row += v
+        if (j > i) out.offDiagonals[j - i - 1][i] += v
+      }
+      out.rowSums[i] += row
+    }
+  }
+  for (let e = 0; e + 1 < xs.length; e++) {
+    const h = xs[e + 1] - xs[e]
+    const f = FORM_SIZE * formOfInterval[e]
+    // Strain rows over [w_a, s_a, w_b, s_b]: d1 = w_b − w_a − (h/ℓ) s_a, d2 = s_b − s_a.
+    const r1 = [-1, -h / scale, 1, 0]
+    const r2 = [0, -1, 0, 1]
+    // Geometric rows: (s_a, w_b − w_a, s_b).
+    const q1 = [0, 1, 0, 0]
+    const q2 = [-1, 0, 1, 0]
+    const q3 = [0, 0, 0, 1]
+    const S = [forms[f], forms[f + 1], forms[f + 2]]
+    const g = [forms[f + 3], forms[f + 4], forms[f + 5], forms[f + 6], forms[f + 7], forms[f + 8]]
+    for (let a = 0; a < 4; a++) {
+      for (let b = 0; b < 4; b++) {
+        let v = S[0] * r1[a] * r1[b] + S[1] * (r1[a] * r2[b] + r2[a] * r1[b]) + S[2] * r2[a] * r2[b]
+        if (preload !== 0) {
+          v +=
+            preload *
+            (g[0] * q1[a] * q1[b] +
+              g[1] * (q1[a] * q2[b] + q2[a] * q1[b]) +
+              g[2] * (q1[a] * q3[b] + q3[a] * q1[b]) +
+              g[3] * q2[a] * q2[b] +
+              g[4] * (q2[a] * q3[b] + q3[a] * q2[b]) +
+              g[5] * q3[a] * q3[b])
+        }
+        element[4 * a + b] = v
+      }
+    }
+    for (let k = 0; k < 4; k++) dofs[k] = index[2 * e + k]
+    addMatrix()
+  }
+  const { groundedStiffness, groundedIndex, groundedWeight } = data
+  for (let t = 0; t < groundedStiffness.length; t++) {
+    for (let p = 4 * t; p < 4 * t + 4; p++) {
+      const i = groundedIndex[p]
+      if (i < 0) continue
+      let row = 0
+      for (let q = 4 * t; q < 4 * t + 4; q++) {
+        const j = groundedIndex[q]
+        if (j < 0) continue
+        const v = groundedStiffness[t] * groundedWeight[p] * groundedWeight[q]
+        row += v
+        if (j > i) out.offDiagonals[j - i - 1][i] += v
+      }
+      out.rowSums[i] += row
+    }
+  }
+  return out
+}
+
+/**
+ * The matrix G_ij = v_iᵀ K v_j of a few vectors from the forms, in one pass over the elements
+ * (the same sums as beamFormsEnergy, each element's strains taken once per vector).
+ */
+export function beamFormsGram(data: BeamForms, vectors: readonly Float64Array[]): number[][] {
+  const { layout, index, forms, formOfInterval, preload } = data
+  const xs = layout.x
+  const scale = layout.rotationScale
+  const m = vectors.length
+  const gram = new Float64Array(m * m)
+  // Per vector: d₁, d₂ (elastic strains) and s_a, Δw, s_b (geometric).
+  const strains = new Float64Array(5 * m)
+  for (let e = 0; e + 1 < xs.length; e++) {
+    const h = xs[e + 1] - xs[e]
+    const f = FORM_SIZE * formOfInterval[e]
+    const ia = 2 * e
+    const iwa = index[ia], isa = index[ia + 1], iwb = index[ia + 2], isb = index[ia + 3] // prettier-ignore
+    for (let j = 0; j < m; j++) {
+      const v = vectors[j]
+      const sa = isa >= 0 ? v[isa] : 0
+      const sb = isb >= 0 ? v[isb] : 0
+      const dw = (iwb >= 0 ? v[iwb] : 0) - (iwa >= 0 ? v[iwa] : 0)
+      strains[5 * j] = dw - (h * sa) / scale
+      strains[5 * j + 1] = sb - sa
+      strains[5 * j + 2] = sa
+      strains[5 * j + 3] = dw
+      strains[5 * j + 4] = sb
+    }
+    const k11 = forms[f], k12 = forms[f + 1], k22 = forms[f + 2] // prettier-ignore
+    for (let i = 0; i < m; i++) {
+      const x1 = strains[5 * i], x2 = strains[5 * i + 1] // prettier-ignore
+      // The form applied to vector i's strains, then dotted with each vector j ≥ i.
+      const g1 = k11 * x1 + k12 * x2
+      const g2 = k12 * x1 + k22 * x2
+      let p1 = 0, p2 = 0, p3 = 0 // prettier-ignore
+      if (preload !== 0) {
+        const sa = strains[5 * i + 2], dw = strains[5 * i + 3], sb = strains[5 * i + 4] // prettier-ignore
+        p1 = preload * (forms[f + 3] * sa + forms[f + 4] * dw + forms[f + 5] * sb)
+        p2 = preload * (forms[f + 4] * sa + forms[f + 6] * dw + forms[f + 7] * sb)
+        p3 = preload * (forms[f + 5] * sa + forms[f + 7] * dw + forms[f + 8] * sb)
+      }
+      for (let j = i; j < m; j++) {
+        gram[i * m + j] += g1 * strains[5 * j] + g2 * strains[5 * j + 1] + p1 * strains[5 * j + 2] + p2 * strains[5 * j + 3] + p3 * strains[5 * j + 4]
+      }
+    }
+  }
+  const { groundedStiffness, groundedIndex, groundedWeight } = data
+  const projections = new Float64Array(m)
+  for (let g = 0; g < groundedStiffness.length; g++) {
+    for (let j = 0; j < m; j++) {
+      let p = 0
+      for (let q = 4 * g; q < 4 * g + 4; q++) if (groundedIndex[q] >= 0) p += groundedWeight[q] * vectors[j][groundedIndex[q]]
+      projections[j] = p
+    }
+    for (let i = 0; i < m; i++) for (let j = i; j < m; j++) gram[i * m + j] += groundedStiffness[g] * projections[i] * projections[j]
+  }
+  const out: number[][] = []
+  for (let i = 0; i < m; i++) {
+    const row: number[] = []
+    for (let j = 0; j < m; j++) row.push(i <= j ? gram[i * m + j] : gram[j * m + i])
+    out.push(row)
+  }
+  return out
 }

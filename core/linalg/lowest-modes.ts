@@ -22,8 +22,8 @@
  */
 import { seededRandom, type RandomSource } from '../random'
 import { coarseningMap, coarsenPencil, interpolateSmooth } from './galerkin-coarsening'
-import { beamCoarsening, coarsenBeamPencil, prolongateBeam, rigidMotionVectors, type BeamLayout } from './beam-coarsening'
-import { coarsenBeamForms } from './beam-energy'
+import { beamCoarsening, coarsenBeamMass, coarsenBeamPencil, prolongateBeam, rigidMotionVectors, type BeamLayout } from './beam-coarsening'
+import { assembleFromForms, beamFormsGram, coarsenBeamForms } from './beam-energy'
 import {
   blockEnergies,
   borrowBlockWork,
@@ -69,6 +69,11 @@ export interface SturmCheck {
   /** What the counts must be if no mode was missed: 1, 2, … (rigid-body modes included). */
   readonly expected: number[]
   readonly passed: boolean
+  /**
+   * Set when the counts were taken on a coarser level of a beam's hierarchy, because the finer
+   * levels no longer changed the frequencies (see SETTLED): the unknowns of the level counted.
+   */
+  readonly countedUnknowns?: number
 }
 
 export interface LowestModes {
@@ -80,7 +85,7 @@ export interface LowestModes {
   readonly sturm: SturmCheck
   /** Every mode's iteration met its tolerance and the values rise with the index. */
   readonly converged: boolean
-  readonly statistics: { levels: number; factorizations: number; repairedModes: number }
+  readonly statistics: { levels: number; factorizations: number; repairedModes: number; settledLevels: number }
 }
 
 interface Context {
@@ -89,6 +94,7 @@ interface Context {
   factorizations: number
   repairedModes: number
   levels: number
+  settledLevels: number
   readonly random: RandomSource
   readonly tolerance: number
 }
@@ -103,6 +109,9 @@ interface LevelResult {
   readonly rigidVectors: Float64Array[]
   readonly sturm: SturmCheck
   readonly converged: boolean
+  /** Beam levels: the elastic values of the level below and the coarsening ratio to it (for settled levels). */
+  readonly previousValues?: number[]
+  readonly ratio?: number
 }
 
 /** Work storage of one level. */
@@ -110,8 +119,10 @@ interface Level {
   readonly pencil: BandPencil
   readonly order: number
   readonly context: Context
-  /** M-orthonormal vectors every iterate is kept orthogonal to (the rigid-body mode), and M times each. */
+  /** M-orthonormal vectors every iterate is kept orthogonal to (rigid-body modes, settled modes), and M times each. */
   readonly locked: Float64Array[]
+  /** How many of them are rigid-body modes (λ = 0). */
+  readonly rigidCount: number
   readonly lockedM: Float64Array[]
   scratch: Float64Array
   block: BlockWork
@@ -129,6 +140,102 @@ interface RefinedMode {
   value: number
   converged: boolean
   vector: Float64Array
+}
+
+/**
+ * A beam level is settled when refining it further would move every frequency by less than this
+ * (relative): its eigenvalues then match the finer level's to well within what the finer level's
+ * own round-off (growing like its κ ∝ h⁻⁴) would allow, so the finer level keeps the coarse modes,
+ * interpolated, with its own Rayleigh quotients.
+ */
+const SETTLED = 1e-13
+
+/** The coarse level of a beam: Galerkin mass, and the stiffness from the coarsened strain forms where the level has them. */
+function coarsenBeamLevel(pencil: BandPencil, map: ReturnType<typeof beamCoarsening>): BandPencil {
+  if (!pencil.beamForms) return coarsenBeamPencil(pencil, map)
+  const beamForms = coarsenBeamForms(pencil.beamForms, map)
+  return { stiffness: assembleFromForms(beamForms, map.coarseOrder), mass: coarsenBeamMass(pencil.mass, map), beamForms }
+}
+
+/**
+ * How many of the lowest modes have settled on the coarse level. Hermite elements converge as
+ * h⁴ (e(h) = Ch⁴), so from the change δ between the two coarser levels the change to this one is
+ * δ(1 − r⁻⁴)/(r′⁴ − 1), r and r′ the coarsening ratios. A mode has settled when that change is
+ * below SETTLED, or below what this level's round-off would cost it: refining a beam's mode of
+ * eigenvalue λ on a level whose largest is λ_max leaves it about 1e-8·(ε λ_max/λ)² off (fitted to
+ * uniform beams from 160 to 10 000 elements; the energy-form Rayleigh quotients keep it that
+ * small), and a mode within the count's own noise (100 ε λ_max) cannot be refined at all.
+ */
+function settledPrefix(pencil: BandPencil, coarse: LevelResult, elastic: number, ratio: number): number {
+  const previous = coarse.previousValues
+  const previousRatio = coarse.ratio
+  if (!previous || !previousRatio || !coarse.converged || !coarse.sturm.passed) return 0
+  const norms = pencilNorms(pencil)
+  const largest = norms.stiffness / norms.mass
+  let k = 0
+  while (k < Math.min(elastic, coarse.values.length) && previous[k] !== undefined) {
+    const value = coarse.values[k]
+    const change = ((previous[k] - value) * (1 - ratio ** -4)) / (previousRatio ** 4 - 1)
+    const noise = (Number.EPSILON * largest) / Math.abs(value)
+    const roundOff = 1e-8 * noise * noise
+    const countable = value > 2 * COUNT_NOISE * Number.EPSILON * largest
+    if (!(Math.abs(change) <= Math.max(SETTLED, roundOff) * Math.abs(value)) && countable) break
+    k++
+  }
+  return k
+}
+
+/** Sturm counts below COUNT_NOISE·ε·λ_max are decided by round-off in K's factorisation. */
+const COUNT_NOISE = 100
+
+/** A shift between the last settled mode and the first one to refine, above the counts' noise; null when there is none. */
+function floorShift(pencil: BandPencil, lastSettled: number, nextCoarse: number | undefined): number | null {
+  if (nextCoarse === undefined) return null
+  const norms = pencilNorms(pencil)
+  const shift = Math.max(0.5 * (lastSettled + nextCoarse), COUNT_NOISE * Number.EPSILON * (norms.stiffness / norms.mass))
+  return shift < 0.9 * nextCoarse && shift > lastSettled ? shift : null
+}
+
+/**
+ * The first `count` coarse modes interpolated to this level, M-normalised, with the coarse level's
+ * values: the Galerkin coarse pencil is (PᵀKP, PᵀMP), so the quotient of P v on this level is the
+ * coarse quotient of v exactly, and evaluating it here would only add round-off (the vector's own
+ * rounding, ε·|w| per node, costs the energy about ε²·N⁴ relative, 1e-8 at 10⁶ elements).
+ */
+function settledModes(level: Level, map: ReturnType<typeof beamCoarsening>, coarse: LevelResult, count: number): { values: number[]; vectors: Float64Array[] } {
+  const { pencil, order: n } = level
+  const values: number[] = []
+  const vectors: Float64Array[] = []
+  for (let j = 0; j < count; j++) {
+    const v = prolongateBeam(map, coarse.vectors[j], new Float64Array(n))
+    values.push(coarse.values[j])
+    normaliseAndOrient(pencil, v)
+    vectors.push(v)
+  }
+  return { values, vectors }
+}
+
+/**
+ * A settled level: the coarse modes interpolated (P keeps them M-orthonormal, the Galerkin
+ * coarse pencil being PᵀKP, PᵀMP) with their Rayleigh quotients on this level. No factorisation of
+ * this level's K is needed, or trusted: its Sturm counts would rest on pivots that round-off
+ * decides. The check reported is the coarser level's, which says so.
+ */
+function settledLevel(level: Level, map: ReturnType<typeof beamCoarsening>, coarse: LevelResult, elastic: number, ratio: number): LevelResult {
+  level.context.settledLevels++
+  const { values, vectors } = settledModes(level, map, coarse, elastic)
+  const sturm = { ...coarse.sturm, countedUnknowns: coarse.sturm.countedUnknowns ?? map.coarseOrder }
+  return {
+    values,
+    vectors,
+    nextEstimate: coarse.values[elastic] ?? coarse.nextEstimate,
+    rigidBodyModes: level.locked.length,
+    rigidVectors: level.locked,
+    sturm,
+    converged: coarse.converged,
+    previousValues: coarse.values,
+    ratio,
+  }
 }
 
 /** Relative change of a Rayleigh quotient between two steps below which it has converged (energy-form pencils). */
@@ -158,6 +265,7 @@ export function lowestModes(pencil: BandPencil, options: LowestModesOptions): Lo
     factorizations: 0,
     repairedModes: 0,
     levels: 0,
+    settledLevels: 0,
     random: seededRandom(options.seed ?? 20261201),
     tolerance: options.tolerance ?? 1e-11,
   }
@@ -177,7 +285,7 @@ export function lowestModes(pencil: BandPencil, options: LowestModesOptions): Lo
     rigidBodyModes: result.rigidBodyModes,
     sturm: result.sturm,
     converged: result.converged,
-    statistics: { levels: context.levels, factorizations: context.factorizations, repairedModes: context.repairedModes },
+    statistics: { levels: context.levels, factorizations: context.factorizations, repairedModes: context.repairedModes, settledLevels: context.settledLevels },
   }
 }
 
@@ -228,12 +336,13 @@ function hasRigidBodyMode(pencil: BandPencil): boolean {
 
 function createLevel(pencil: BandPencil, context: Context, rigidVectors: Float64Array[]): Level {
   const n = pencil.stiffness.order
-  const locked = rigidVectors
+  const locked = [...rigidVectors]
   return {
     pencil,
     order: n,
     context,
     locked,
+    rigidCount: rigidVectors.length,
     lockedM: locked.map((v) => multiplyBand(pencil.mass, v, new Float64Array(n))),
     scratch: new Float64Array(pencil.stiffness.halfBandwidth === 1 ? 0 : n),
     block: borrowBlockWork(pencil.stiffness.halfBandwidth === 1 ? n : 0),
@@ -284,6 +393,11 @@ function solveLevel(pencil: BandPencil, modes: number, context: Context, warm?: 
   const level = createLevel(pencil, context, rigidVectors)
   let found: RefinedMode[]
   let nextEstimate: number | null = null
+  // Beam levels refined from a coarser one: its values and the ratio, for the next level's settling test.
+  let previousValues: number[] | undefined
+  let levelRatio: number | undefined
+  // Beam levels whose lowest modes settled on the coarser level: those modes, and the counted floor above them.
+  let settledAbove: { modes: { values: number[]; vectors: Float64Array[] }; floor: { shift: number; count: number } } | null = null
   if (warm) {
     const guesses = warm.vectors.slice(warm.rigidBodyModes)
     const count = Math.min(elastic, guesses.length)
@@ -295,11 +409,36 @@ function solveLevel(pencil: BandPencil, modes: number, context: Context, warm?: 
       return start
     })
   } else if (layout && n >= 4 * minimumCoarseOrder(total + 1)) {
-    const map = beamCoarsening(layout, coarseningRatio(n, total))
-    const coarsePencil = { ...coarsenBeamPencil(pencil, map), ...(pencil.beamForms ? { beamForms: coarsenBeamForms(pencil.beamForms, map) } : {}) }
+    // Beams coarsen by 4 at every level: a fine level that can no longer count its lowest modes
+    // keeps them from the level below (settledPrefix), whose discretisation error must be small.
+    const ratio = 4
+    const map = beamCoarsening(layout, ratio)
+    const coarsePencil = coarsenBeamLevel(pencil, map)
     const coarse = solveLevel(coarsePencil, total + 1, context, undefined, map.coarse)
-    found = refineStarts(level, Math.min(elastic, coarse.vectors.length), (j) => prolongateBeam(map, coarse.vectors[j], new Float64Array(n)))
+    const settledCount = pencil.beamForms ? settledPrefix(pencil, coarse, elastic, ratio) : 0
+    if (settledCount === elastic) {
+      returnBlockWork(0, level.block)
+      return settledLevel(level, map, coarse, elastic, ratio)
+    }
+    if (settledCount > 0) {
+      // The settled modes are kept as found (interpolated, with this level's quotients) and locked,
+      // so that the others are refined orthogonal to them and counted above them.
+      const keptOnly = settledModes(level, map, coarse, settledCount)
+      const shift = floorShift(pencil, keptOnly.values[settledCount - 1], coarse.values[settledCount])
+      const below = rigidBodyModes + settledCount
+      if (shift !== null && sturmCounts(pencil, [shift])[0] === below) {
+        for (const v of keptOnly.vectors) {
+          level.locked.push(v)
+          level.lockedM.push(multiplyBand(pencil.mass, v, new Float64Array(n)))
+        }
+        settledAbove = { modes: keptOnly, floor: { shift, count: below } }
+      }
+    }
+    const skip = settledAbove ? settledCount : 0
+    found = refineStarts(level, Math.min(elastic, coarse.vectors.length) - skip, (j) => prolongateBeam(map, coarse.vectors[skip + j], new Float64Array(n)))
     nextEstimate = coarse.values.length > elastic ? coarse.values[elastic] : null
+    previousValues = coarse.values
+    levelRatio = ratio
   } else if (n >= 4 * minimumCoarseOrder(total + 1)) {
     const map = coarseningMap(n, coarseningRatio(n, total))
     const coarse = solveLevel(coarsenPencil(pencil, map), total + 1, context)
@@ -316,11 +455,17 @@ function solveLevel(pencil: BandPencil, modes: number, context: Context, warm?: 
     if (total < n) nextEstimate = slicer.isolate(total + 1, 1).upper
   }
   found.sort((a, b) => a.value - b.value)
-  const checked = verifyAndRepair(level, found, rigidBodyModes, elastic, nextEstimate)
+  const kept = settledAbove ? settledAbove.modes.values.length : 0
+  const checked = settledAbove
+    ? verifyAndRepair(level, found, rigidBodyModes + kept, elastic - kept, nextEstimate, settledAbove.floor)
+    : verifyAndRepair(level, found, rigidBodyModes, elastic, nextEstimate)
   returnBlockWork(pencil.stiffness.halfBandwidth === 1 ? n : 0, level.block)
   // Unit mass norm on every level, so that starts interpolated from it stay far from overflow.
   for (const v of checked.vectors) normaliseAndOrient(pencil, v, context.vectorInfo.get(v))
-  return { ...checked, nextEstimate, rigidBodyModes, rigidVectors }
+  const values = settledAbove ? [...settledAbove.modes.values, ...checked.values] : checked.values
+  const vectors = settledAbove ? [...settledAbove.modes.vectors, ...checked.vectors] : checked.vectors
+  if (settledAbove) context.settledLevels++
+  return { ...checked, values, vectors, nextEstimate, rigidBodyModes, rigidVectors, ...(previousValues ? { previousValues, ratio: levelRatio } : {}) }
 }
 
 /**
@@ -433,6 +578,10 @@ function refineMode(level: Level, x: Float64Array, startValue: number, bracket: 
   let massNorm2 = NaN
   let largest = NaN
   const maxIterations = bracket ? 80 : 10
+  // A beam's quotient comes from its energy form, accurate where the bracket's Sturm counts (from
+  // the assembled K) are blurred by about COUNT_NOISE·ε·λ_max: the bracket is trusted to that.
+  const norms = pencilNorms(pencil)
+  const slack = pencil.beamForms ? COUNT_NOISE * Number.EPSILON * (norms.stiffness / norms.mass) : 0
   for (let iteration = 0; iteration < maxIterations; iteration++) {
     const step = inverseIterationStepInPlace(pencil, sigma, x, level.scratch, factorizationOf(level), level.block)
     context.factorizations++
@@ -462,26 +611,29 @@ function refineMode(level: Level, x: Float64Array, startValue: number, bracket: 
       largest *= s
     }
     // Is the eigenvalue within the bound of σ the one we look for? With a bracket it must be.
-    const identified = !bracket || (shiftIsAbove ? sigma - bound >= bracket.lower : sigma + bound <= bracket.upper)
+    const identified = !bracket || (shiftIsAbove ? sigma - bound >= bracket.lower - slack : sigma + bound <= bracket.upper + slack)
     const scale = Math.abs(sigma) + pencilNorms(pencil).stiffness * 1e-300
-    if (identified && bound <= tol * scale) {
+    // With an energy form the bound rests on the assembled K, which round-off blurs by about ε‖K‖:
+    // only the quotient's own settling (below) says a beam's mode has converged.
+    if (identified && !pencil.beamForms && bound <= tol * scale) {
       converged = true
       break
     }
     // Round-off floor: the bound stopped shrinking at a level already far below any use.
-    if (identified && iteration >= 2 && bound > 0.1 * previousBound && bound <= 1e-9 * scale) {
+    if (identified && !pencil.beamForms && iteration >= 2 && bound > 0.1 * previousBound && bound <= 1e-9 * scale) {
       converged = true
       break
     }
     // With an energy form the quotient is accurate where the bound, which rests on the assembled
     // K, stalls at its round-off (about ε‖K‖): a quotient that no longer moves has converged.
-    if (identified && pencil.beamForms && Math.abs(rho - previousRho) <= STALLED_QUOTIENT * Math.abs(rho)) {
+    const inBracket = !bracket || (rho > bracket.lower - slack && rho < bracket.upper + slack)
+    if (identified && inBracket && pencil.beamForms && Math.abs(rho - previousRho) <= STALLED_QUOTIENT * Math.abs(rho)) {
       converged = true
       break
     }
     previousRho = rho
     previousBound = bound
-    if (bracket && !(rho > bracket.lower && rho < bracket.upper)) sigma = splitBracket(bracket.lower, bracket.upper)
+    if (!inBracket) sigma = splitBracket(bracket!.lower, bracket!.upper)
     else sigma = rho
   }
   if (Number.isFinite(largest) && Number.isFinite(massNorm2)) context.vectorInfo.set(x, { massNorm2, largest })
@@ -559,13 +711,15 @@ function verifyAndRepair(
   rigidBodyModes: number,
   elastic: number,
   nextEstimate: number | null,
+  floor: { readonly shift: number; readonly count: number } = { shift: 0, count: rigidBodyModes },
 ): { values: number[]; vectors: Float64Array[]; sturm: SturmCheck; converged: boolean } {
   const { pencil, context } = level
   const target = rigidBodyModes + elastic
   const m = modes.length
   const values = modes.map((f) => f.value)
-  // Interval boundaries: 0, midpoints between found values, and a point above the last.
-  const bounds: number[] = [0]
+  // Interval boundaries: 0 (or, above settled modes, a shift counted below the first found one),
+  // midpoints between found values, and a point above the last.
+  const bounds: number[] = [floor.shift]
   for (let i = 0; i + 1 < m; i++) bounds.push(0.5 * (values[i] + values[i + 1]))
   let top = 0
   if (m > 0) {
@@ -573,7 +727,7 @@ function verifyAndRepair(
     top = nextEstimate !== null && nextEstimate > last ? 0.5 * (last + nextEstimate) : last * 1.5
     bounds.push(top)
   }
-  const counts = [rigidBodyModes, ...sturmCounts(pencil, bounds.slice(1))]
+  const counts = [floor.count, ...sturmCounts(pencil, bounds.slice(1))]
   // Pull the top shift down towards the last value until nothing extra lies below it.
   for (let i = 0; i < 40 && m > 0 && counts[m] > target; i++) {
     top = values[m - 1] + 0.125 * (top - values[m - 1])
@@ -600,8 +754,8 @@ function verifyAndRepair(
   const highest = m > 0 ? counts[m] : rigidBodyModes
   for (let index = Math.max(highest + 1, rigidBodyModes + 1); index <= target; index++) redo.push({ index, start: null })
   if (redo.length > 0) {
-    const slicer = new SpectrumSlicer(level, rigidBodyModes)
-    for (let i = 1; i < bounds.length; i++) slicer.count(bounds[i])
+    const slicer = new SpectrumSlicer(level, level.rigidCount)
+    for (let i = floor.shift > 0 ? 0 : 1; i < bounds.length; i++) slicer.count(bounds[i])
     for (const job of redo) {
       context.repairedModes++
       const bracket = slicer.isolate(job.index, 0.02)
@@ -617,9 +771,11 @@ function verifyAndRepair(
   const converged = indices.every((i, j) => accepted.get(i)!.converged && (j === 0 || finalValues[j] > finalValues[j - 1]))
   refineClusters(level, finalValues, finalVectors)
   const sturm =
-    redo.length === 0 && m === elastic
-      ? sturmCheckFromCounts(bounds, counts, rigidBodyModes)
-      : checkLowestEigenvalues(pencil, [...new Array<number>(rigidBodyModes).fill(0), ...finalValues], top)
+    floor.shift > 0
+      ? checkAboveFloor(pencil, floor.shift, rigidBodyModes, finalValues, top)
+      : redo.length === 0 && m === elastic
+        ? sturmCheckFromCounts(bounds, counts, rigidBodyModes)
+        : checkLowestEigenvalues(pencil, [...new Array<number>(rigidBodyModes).fill(0), ...finalValues], top)
   return { values: finalValues, vectors: finalVectors, sturm, converged }
 }
 
@@ -633,14 +789,19 @@ const CLUSTER_GAP = 1e-4
  */
 function refineClusters(level: Level, values: number[], vectors: Float64Array[]): void {
   const { pencil, context } = level
+  // A beam's factorisations carry round-off of about ε‖K‖, which leaves each iterate a little of
+  // its neighbours (the quotient a little high); the projection onto all the modes found, with the
+  // energy form's accurate K, removes that: one cluster of every mode.
+  const whole = !!pencil.beamForms
   let first = 0
   while (first < values.length) {
     let last = first
-    while (last + 1 < values.length && values[last + 1] - values[last] <= CLUSTER_GAP * Math.abs(values[last + 1])) last++
+    while (last + 1 < values.length && (whole || values[last + 1] - values[last] <= CLUSTER_GAP * Math.abs(values[last + 1]))) last++
     if (last > first) {
       const members = vectors.slice(first, last + 1)
-      const stiffnessGram = members.map((u) => members.map((v) => stiffnessForm(pencil, u, v)))
-      const massGram = members.map((u) => members.map((v) => bilinearForm(pencil.mass, u, v)))
+      const stiffnessGram = pencil.beamForms ? beamFormsGram(pencil.beamForms, members) : members.map((u) => members.map((v) => stiffnessForm(pencil, u, v)))
+      const massTimes = members.map((v) => multiplyBand(pencil.mass, v, new Float64Array(level.order)))
+      const massGram = members.map((u, i) => members.map((v, j) => 0.5 * (dot(u, massTimes[j]) + dot(v, massTimes[i]))))
       let ritz: ReturnType<typeof smallGeneralizedEigen>
       try {
         ritz = smallGeneralizedEigen(stiffnessGram, massGram)
@@ -652,10 +813,11 @@ function refineClusters(level: Level, values: number[], vectors: Float64Array[])
       }
       const combined = ritz.vectors.map((coefficients) => {
         const out = new Float64Array(level.order)
-        coefficients.forEach((c, j) => {
+        for (let j = 0; j < coefficients.length; j++) {
+          const c = coefficients[j]
           const v = members[j]
           for (let i = 0; i < out.length; i++) out[i] += c * v[i]
-        })
+        }
         return out
       })
       combined.forEach((v, j) => {
@@ -666,6 +828,19 @@ function refineClusters(level: Level, values: number[], vectors: Float64Array[])
     }
     first = last + 1
   }
+}
+
+/**
+ * The Sturm check of modes found above settled ones: the count at the floor shift must be the
+ * number of modes below it (rigid and settled), then one more at each midpoint and above the last.
+ */
+function checkAboveFloor(pencil: BandPencil, floorShift: number, below: number, values: number[], top: number): SturmCheck {
+  const shifts = [floorShift]
+  for (let i = 0; i + 1 < values.length; i++) shifts.push(0.5 * (values[i] + values[i + 1]))
+  if (values.length) shifts.push(top > values[values.length - 1] ? top : 1.5 * values[values.length - 1])
+  const expected = shifts.map((_, i) => below + i)
+  const counts = sturmCounts(pencil, shifts)
+  return { shifts, counts, expected, passed: counts.every((c, i) => c === expected[i]) }
 }
 
 /** The check already made on the accepted modes: counts at the midpoints and the top shift. */
