@@ -7,6 +7,7 @@
 import { nowMs } from '../clock'
 import { familyReference, type FamilyReference } from '../exact/family-reference'
 import { assembleFamily, type AssembledModel } from '../fe/assemble'
+import { beamShapes } from '../fe/beam-element'
 import { lowestModes, type SturmCheck } from '../linalg/lowest-modes'
 import { analysedFamilies, type BendingPlane, type Family, type FamilyKey } from '../model/families'
 import { materialOf, sectionArea, totalLength, totalMass } from '../model/geometry'
@@ -381,11 +382,14 @@ export function fieldStrain(analysis: Pick<FamilyAnalysis, 'model' | 'project' |
     let start: number
     let end: number
     if (motion === 'bending') {
-      // Curvature at the element's ends from the Hermite cubic (Timoshenko: the same cubic's w″ is ψ′ up to O(Φ)).
+      // Curvature ψ′ at the element's ends from the element's own interpolation (Hermite cubic,
+      // or the Timoshenko element's with its Φ; with Φ = 0 ψ′ is the cubic's w″).
       const r = rotation as Float64Array
-      const w0 = displacement[e], t0 = r[e], w1 = displacement[e + 1], t1 = r[e + 1] // prettier-ignore
-      start = (6 * (w1 - w0)) / (h * h) - (4 * t0 + 2 * t1) / h
-      end = (-6 * (w1 - w0)) / (h * h) + (2 * t0 + 4 * t1) / h
+      const q = [displacement[e], r[e], displacement[e + 1], r[e + 1]]
+      const phi = analysis.model.elementShearParameter?.[e] ?? 0
+      const curvature = (t: number) => beamShapes(t, h, phi).dpsi.reduce((sum, n, i) => sum + n * q[i], 0)
+      start = curvature(0)
+      end = curvature(1)
     } else if (order === 1) {
       start = end = (displacement[first + 1] - displacement[first]) / h
     } else {

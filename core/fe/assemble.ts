@@ -43,6 +43,8 @@ export interface AssembledModel {
   /** Bending only: K without the preload's part, and the geometric stiffness per newton of tension. */
   readonly elasticStiffness: SymmetricBandMatrix | null
   readonly geometricStiffness: SymmetricBandMatrix | null
+  /** Bending only: each element's Φ = 12EI/(κGAh²) (0 under Euler–Bernoulli), for the curvature ψ′ of its fields. */
+  readonly elementShearParameter: Float64Array | null
   /**
    * b = (M_ff + M_fc)·r: the inertia load of a unit acceleration of every support (fixed ends
    * and the family's springs moving together: along the axis, about it, or sideways), per
@@ -139,6 +141,7 @@ function assembleBar(project: Project, motion: Exclude<Motion, 'bending'>, setti
     rotationScale: 1,
     layout: null,
     elasticStiffness: null,
+    elementShearParameter: null,
     geometricStiffness: null,
     supportInfluence,
     totalMass: motion === 'axial' ? totalMass(project) : totalPolarInertia(project),
@@ -326,6 +329,7 @@ function assembleBending(project: Project, plane: BendingPlane, settings: Assemb
   // The energy form of K (see stiffnessEnergy below): per element an index into `forms`, whose
   // entries are the scaled element's 2 × 2 elastic block and 3 × 3 geometric block.
   const formOfElement = new Int32Array(mesh.elementCount)
+  const elementShearParameter = new Float64Array(mesh.elementCount)
   const forms: number[] = []
   for (const piece of mesh.pieces) {
     const section = beamSection(project, piece.segment, plane, theory)
@@ -355,6 +359,7 @@ function assembleBending(project: Project, plane: BendingPlane, settings: Assemb
         forms.push(...elementForm(scaled(matrices.elastic, d), scaled(matrices.geometric, d)))
       }
       formOfElement[e] = forms.length / FORM_SIZE - 1
+      elementShearParameter[e] = matrices.shearParameter
       dofs[0] = index[2 * e]
       dofs[1] = index[2 * e + 1]
       dofs[2] = index[2 * e + 2]
@@ -436,6 +441,7 @@ function assembleBending(project: Project, plane: BendingPlane, settings: Assemb
     rotationScale: scale,
     layout,
     elasticStiffness: elastic,
+    elementShearParameter,
     geometricStiffness: geometric,
     supportInfluence: lateralSupport ? influence : null,
     totalMass: totalMass(project),

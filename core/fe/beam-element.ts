@@ -39,6 +39,8 @@ export interface BeamElementMatrices {
   /** Geometric stiffness per newton of tension, ∫ N_w′ N_w′ dx. */
   readonly geometric: Float64Array
   readonly mass: Float64Array
+  /** Φ = 12EI/(κGAh²) of the interpolation (0 for Euler–Bernoulli): beamShapes(t, h, Φ) recovers the fields. */
+  readonly shearParameter: number
 }
 
 const RULE = gaussLegendreRule(5)
@@ -97,12 +99,12 @@ export function beamElementMatrices(length: number, section: BeamElementSection,
       }
     }
   }
-  if (massKind === 'consistent') return { elastic, geometric, mass: consistent }
+  if (massKind === 'consistent') return { elastic, geometric, mass: consistent, shearParameter: phi }
   const lumped = lumpedBeamMass(consistent, section, h)
-  if (massKind === 'lumped') return { elastic, geometric, mass: lumped }
+  if (massKind === 'lumped') return { elastic, geometric, mass: lumped, shearParameter: phi }
   const mixed = new Float64Array(16)
   for (let i = 0; i < 16; i++) mixed[i] = 0.5 * (consistent[i] + lumped[i])
-  return { elastic, geometric, mass: mixed }
+  return { elastic, geometric, mass: mixed, shearParameter: phi }
 }
 
 /** Diagonal of the consistent mass, scaled so that the translations carry the element's mass. */

@@ -17,7 +17,7 @@
  */
 import { describe, expect, test } from 'vitest'
 import { CholeskyDecomposition, EigenvalueDecomposition, Matrix, inverse } from 'ml-matrix'
-import { AnalysisInputError, analyseFamily, analyseProject, effectiveSettings, modeShape } from '../../core/analysis/modal-analysis'
+import { AnalysisInputError, analyseFamily, analyseProject, effectiveSettings, modeShape, modeStrain } from '../../core/analysis/modal-analysis'
 import { criticalCompression, finiteElementCriticalCompression } from '../../core/analysis/buckling'
 import { assembleFamily } from '../../core/fe/assemble'
 import { lowestModes } from '../../core/linalg/lowest-modes'
@@ -282,6 +282,22 @@ describe('Timoshenko beams: pinned–pinned against the frequency equation of it
       expect(order, `mode ${i + 1} order ${order}`).toBeGreaterThan(1.9)
       expect(order).toBeLessThan(2.1)
       expectRelative(fine[i] + (fine[i] - coarse[i]) / 3, exact(i + 1), 1e-7, `mode ${i + 1} extrapolated`)
+    }
+  })
+  test('the bending strain of a mode is the rotation’s slope ψ′, not w″: peak ψ′/peak w = k² − ρω²/(κG) from the first equation', () => {
+    // From κGA(w″ − ψ′) + ρAω²w = 0 with w = W sin kx, ψ = Ψ cos kx: Ψk = W(k² − ρω²/κG).
+    const p = beam('pinned', 'pinned', { L, d: D, n: 400, theory: 'timoshenko', modes: 2 })
+    const family = analyseFamily(p, familyOf('bending'), effectiveSettings(p), { withReference: false })
+    for (const n of [1, 2]) {
+      const k = (n * Math.PI) / L
+      const omega = 2 * Math.PI * exact(n)
+      const expected = k * k - (RHO * omega * omega) / (kappa * G)
+      const strain = modeStrain(family, n - 1).strain
+      const deflection = modeShape(family, n - 1).displacement
+      const peak = (v: ArrayLike<number>) => Array.from(v).reduce((m, x) => Math.max(m, Math.abs(x)), 0)
+      expectRelative(peak(strain) / peak(deflection), expected, 2e-4, `mode ${n}`)
+      // Euler–Bernoulli's k² would be off by ρω²/(κGk²): several per cent for this stubby beam.
+      expect(Math.abs(k * k / expected - 1)).toBeGreaterThan(0.01)
     }
   })
   test('shear and rotary inertia lower a stubby beam’s frequencies below Euler–Bernoulli', () => {
