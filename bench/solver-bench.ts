@@ -35,7 +35,7 @@ const E = 200e9
 const RHO = 7850
 const c = Math.sqrt(E / RHO)
 
-/** f₁ of the discrete consistent-mass problem of N equal 2-node elements (check-values.md §3). */
+/** f₁ of the discrete consistent-mass problem of N equal 2-node elements (docs/verification.md §3). */
 function discreteF1(n: number): number {
   const h = 1 / n
   const theta = (Math.PI * h) / 2
