@@ -10,6 +10,7 @@ import { readProjectText, formatProjectIssues } from '../core/model/project-sche
 import type { AnalysisOverrides } from '../core/analysis/modal-analysis'
 import type { Project } from '../core/model/project'
 import { COMMANDS, type CommandContext, type InputTiming } from './commands'
+import { AnalysisInputError } from '../core/analysis/modal-analysis'
 import { CAUTION, capEchoes, echo, echoPath, EXIT, integerOption, OPTIONS, OutOfReachError, UsageError, type CliIo, type CliValues } from './cli-common'
 
 export { CAUTION, ECHO_LIMIT, echo, echoPath, EXIT, integerOption, numberOption, OutOfReachError, UsageError, type CliIo, type CliValues } from './cli-common'
@@ -123,6 +124,11 @@ export async function runCli(argv: readonly string[], io: CliIo, options: RunOpt
     if (error instanceof OutOfReachError) {
       io.stderr(`rodwave: ${error.message}\n`)
       return EXIT.targetOutOfReach
+    }
+    if (error instanceof AnalysisInputError) {
+      // Found only by the analysis (a compression past the buckling load): invalid input, by path.
+      io.stderr(`rodwave: ${echoPath(file)} is not a valid Rodwave project:\n  ${error.message}\n`)
+      return EXIT.invalidInput
     }
     if (error instanceof RangeError) {
       io.stderr(`rodwave: ${error.message}\n`)

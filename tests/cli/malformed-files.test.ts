@@ -34,6 +34,21 @@ function mutated(change: (d: Record<string, any>) => void): string { // eslint-d
 }
 
 export const CORPUS: [string, string, string][] = [
+  // Only the analysis finds this one: a 1 m pinned–pinned steel rod of 20 mm has Euler's load
+  // π²EI/L² = 15,503 N, printed to four significant figures (Timoshenko & Gere, from memory; EI = 200e9·π·0.02⁴/64).
+  [
+    'compression past the buckling load',
+    JSON.stringify({
+      format: 'rodwave',
+      version: 2,
+      motions: ['bending'],
+      materials: [{ id: 'st', youngsModulus: 2e11, density: 7850 }],
+      segments: [{ length: 1, material: 'st', section: { shape: 'solid', diameter: 0.02 } }],
+      ends: { start: { bending: 'pinned' }, end: { bending: 'pinned' } },
+      preload: -16000,
+    }),
+    'preload: a compression of 16,000 N is at or beyond the buckling load of the part on its bending supports, 15,500 N',
+  ],
   ['not JSON', 'segments: [ { length: 1 } ]', '(file): is not valid JSON'],
   ['empty', '', '(file): is empty'],
   ['only whitespace', '   \n\t ', '(file): is empty'],
