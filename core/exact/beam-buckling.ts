@@ -16,7 +16,7 @@
  * one member, zero elsewhere, is admissible for every support, so Q₁ ≤ minᵢ 4π²EIᵢ/ℓᵢ².
  */
 import { checkBeamChain, type BeamChain } from './beam-chain'
-import { brentRoot } from './beam-brent-root'
+import { brentRoot } from '../optimize/brent-root'
 import { rigidMotionsLeftFree } from './beam-rigid-body-modes'
 import { beamPieces, beamSweep } from './beam-wittrick-williams'
 
@@ -54,7 +54,7 @@ export function beamCriticalCompression(chain: BeamChain): number {
   const residual = (q: number) => beamSweep(at(q), 0, pieces).residual
   const fa = residual(a)
   const fb = residual(b)
-  if (fa * fb <= 0) return brentRoot(residual, a, b, fa, fb)
+  if (fa * fb <= 0) return brentRoot(residual, a, b, 0, 300, { fa, fb })
   for (let i = 0; i < 200; i++) {
     const mid = 0.5 * (a + b)
     if (mid <= a || mid >= b) break

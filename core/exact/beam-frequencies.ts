@@ -3,14 +3,14 @@
  * Wittrick–Williams count J(ω) (beam-wittrick-williams.ts) steps from n − 1 to n. Bisection on J
  * isolates it (J(a) = n − 1, J(b) = n: one simple root in (a, b)); then, with the pieces held
  * fixed over [a, b], Brent's method on the end's boundary determinant, which changes sign
- * exactly there, takes it to a few ulps (beam-brent-root.ts). Roots closer together than the
+ * exactly there, takes it to a few ulps (optimize/brent-root.ts). Roots closer together than the
  * count can separate (a few ulps) are returned as one value, repeated as often as the count
  * steps within 1e-12 of it.
  * Zero-frequency rigid-body modes come first (beam-rigid-body-modes.ts); a compression at or
  * above the buckling load is refused (beam-buckling.ts).
  */
 import { checkBeamChain, type BeamChain } from './beam-chain'
-import { brentRoot } from './beam-brent-root'
+import { brentRoot } from '../optimize/brent-root'
 import { beamCriticalCompression } from './beam-buckling'
 import { beamRigidBodyModes } from './beam-rigid-body-modes'
 import { beamPieces, beamSweep } from './beam-wittrick-williams'
@@ -105,7 +105,7 @@ function refine(chain: BeamChain, lower: Probe, upper: Probe, index: number, cou
   const residual = (omega: number) => beamSweep(chain, omega, pieces).residual
   const fa = residual(lower.omega)
   const fb = residual(upper.omega)
-  if (fa * fb <= 0) return brentRoot(residual, lower.omega, upper.omega, fa, fb)
+  if (fa * fb <= 0) return brentRoot(residual, lower.omega, upper.omega, 0, 300, { fa, fb })
   // Not expected (one simple root lies between); fall back to the count alone.
   return countBisection(lower.omega, upper.omega, index, countBelow)
 }

@@ -3,10 +3,19 @@
  * interpolation and secant steps, falling back to bisection whenever they would not
  * shrink the bracket fast enough (R. P. Brent, Algorithms for Minimization without
  * Derivatives, 1973, ch. 4, "zero"; from memory). Converges whenever bisection would.
+ * `tolerance` is relative (0: to a bracket of a few ulps); `ends` passes f(a) and f(b) when the
+ * caller has them already (the exact references' residuals are costly).
  */
-export function brentRoot(f: (x: number) => number, a: number, b: number, tolerance = 1e-13, maxEvaluations = 200): number {
-  let fa = f(a)
-  let fb = f(b)
+export function brentRoot(
+  f: (x: number) => number,
+  a: number,
+  b: number,
+  tolerance = 1e-13,
+  maxEvaluations = 200,
+  ends?: { readonly fa: number; readonly fb: number },
+): number {
+  let fa = ends ? ends.fa : f(a)
+  let fb = ends ? ends.fb : f(b)
   if (fa === 0) return a
   if (fb === 0) return b
   if (fa * fb > 0) throw new RangeError('brentRoot: f(a) and f(b) have the same sign')
@@ -29,7 +38,7 @@ export function brentRoot(f: (x: number) => number, a: number, b: number, tolera
       fb = fc
       fc = fa
     }
-    const tol = 2 * Number.EPSILON * Math.abs(b) + 0.5 * tolerance * Math.abs(b)
+    const tol = 2 * Number.EPSILON * Math.abs(b) + 0.5 * tolerance * Math.abs(b) + Number.MIN_VALUE
     const m = 0.5 * (c - b)
     if (Math.abs(m) <= tol || fb === 0) return b
     if (Math.abs(e) >= tol && Math.abs(fa) > Math.abs(fb)) {
