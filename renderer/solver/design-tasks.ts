@@ -6,27 +6,35 @@
  */
 import { analyseProject, type FamilyAnalysis, type ModeResult } from '../../core/analysis/modal-analysis'
 import { designParameters, type DesignParameter } from '../../core/analysis/design-parameters'
-import { frequencySensitivities, type Sensitivity } from '../../core/analysis/sensitivity'
+import { designSensitivities, type FamilySensitivity } from '../../core/analysis/family-sensitivity'
 import { scatterFrequencies } from '../../core/analysis/tolerance-scatter'
 import { evaluateReceptance, peakStressPerForce, pointWeights, receptanceModel, type ReceptanceModel } from '../../core/analysis/forced-response'
 import { excitationBands, type ExcitationBand } from '../../core/analysis/resonance'
 import { brentMinimize } from '../../core/optimize/brent-minimize'
 import { totalLength } from '../../core/model/geometry'
-import type { Project } from '../../core/model/project'
+import type { Motion, Project } from '../../core/model/project'
+import type { FamilyKey } from '../../core/model/families'
 import { partKey } from './part-key'
 
 export interface SensitivityTable {
   readonly parameters: DesignParameter[]
-  /** The exact frequencies the sensitivities belong to (elastic modes only). */
-  readonly modes: { readonly mode: number; readonly frequencyHz: number }[]
-  readonly sensitivities: Sensitivity[]
+  /**
+   * The frequencies the sensitivities belong to (elastic modes only), family by family: exact for
+   * axial motion, the finite-element ones for torsion and bending.
+   */
+  readonly modes: Pick<FamilySensitivity, 'mode' | 'motion' | 'plane' | 'family' | 'frequencyHz'>[]
+  readonly sensitivities: FamilySensitivity[]
 }
 
-/** Sensitivities of the project's reported modes to every parameter, from the exact mode shapes. */
+/**
+ * Sensitivities of every analysed family's reported modes to every parameter: from the exact
+ * mode shapes for axial motion, by Rayleigh's principle on the finite-element modes for torsion
+ * and bending (core/analysis/family-sensitivity.ts).
+ */
 export function sensitivityTask(project: Project): SensitivityTable {
   const parameters = designParameters(project)
-  const sensitivities = frequencySensitivities(project, project.analysis.modes, parameters)
-  const modes = [...new Map(sensitivities.map((s) => [s.mode, { mode: s.mode, frequencyHz: s.frequencyHz }])).values()]
+  const sensitivities = designSensitivities(project, project.analysis.modes)
+  const modes = [...new Map(sensitivities.map((s) => [`${s.family} ${s.mode}`, { mode: s.mode, motion: s.motion, plane: s.plane, family: s.family, frequencyHz: s.frequencyHz }])).values()]
   return { parameters, modes, sensitivities }
 }
 
@@ -70,7 +78,9 @@ export function scatterShareTask(project: Project, run: ScatterShareRun, onProgr
 export type FrequencyAxis = 'linear' | 'log'
 
 export interface ResponseTaskRequest {
-  /** Where the force acts and where the displacement is read, m from the start. */
+  /** The family whose response is computed (default: the project's first): a force along the axis, a torque, or a side force. */
+  readonly family?: FamilyKey
+  /** Where the force (torque) acts and where the displacement (twist, deflection) is read, m from the start. */
   readonly forceAt: number
   readonly responseAt: number
   readonly fromHz: number
@@ -100,6 +110,9 @@ export interface ResponsePoint {
 
 export interface ResponseResult {
   readonly request: ResponseTaskRequest
+  /** The family computed, and its motion (which says force or torque, displacement or twist). */
+  readonly family: FamilyKey
+  readonly motion: Motion
   readonly damping: number
   /** First frequency of the grid (a log axis cannot start at 0). */
   readonly firstHz: number
@@ -156,12 +169,17 @@ export function bandPeak(model: ReceptanceModel, band: readonly [number, number]
   return -refined.fx > best.amplitude ? { hz: refined.x, amplitude: -refined.fx } : best
 }
 
-// The worker keeps the last solved part: changing the range, the points or the damping needs no new solve.
+// The worker keeps the last solved part and family: changing the range, the points or the damping needs no new solve.
 let cached: { key: string; analysis: FamilyAnalysis } | null = null
 
-function analysisOf(project: Project): FamilyAnalysis {
-  const key = partKey(project)
-  if (cached?.key !== key) cached = { key, analysis: analyseProject(project, {}, { withReference: false }).families[0] }
+function analysisOf(project: Project, family?: FamilyKey): FamilyAnalysis {
+  const key = JSON.stringify([partKey(project), project.preload ?? 0, project.motions, family ?? null])
+  if (cached?.key !== key) {
+    const analysis = analyseProject(project, {}, { withReference: false, ...(family ? { families: [family] } : {}) })
+    const found = analysis.families[0]
+    if (!found) throw new RangeError(`the part does not analyse ${family ?? 'any motion'}`)
+    cached = { key, analysis: found }
+  }
   return cached.analysis
 }
 
@@ -175,14 +193,16 @@ export function responseTask(project: Project, request: ResponseTaskRequest): Re
     if (!(x >= 0 && x <= length)) throw new RangeError(`the ${name} must lie on the bar, between 0 and its length`)
   }
   if (!(request.fromHz >= 0 && request.toHz > request.fromHz)) throw new RangeError('the frequency range must satisfy 0 ≤ from < to')
-  const analysis = analysisOf(project)
+  const analysis = analysisOf(project, request.family)
+  const motion = analysis.family.motion
   const damping = project.damping
   const model = receptanceModel(analysis, pointWeights(analysis, request.forceAt), pointWeights(analysis, request.responseAt), damping)
   const elasticHz = analysis.modes.filter((m) => !m.rigidBody).map((m) => m.frequencyHz)
   const grid = responseGrid(request, elasticHz, damping)
   const points = grid.map((frequencyHz) => ({ frequencyHz, amplitude: amplitudeAt(model, frequencyHz) }))
   const staticFlexibility = model.staticFlexibility === null ? null : Math.abs(model.staticFlexibility)
-  const bands = excitationBands(project.excitations).map((band): ResponseBandRow => {
+  // Only the excitations that drive this family.
+  const bands = excitationBands(project.excitations, project.motions).filter((b) => b.excites.includes(motion)).map((band): ResponseBandRow => {
     const peak = bandPeak(model, band.hz, elasticHz)
     const [lo, hi] = band.hz
     const stressHz = [peak.hz, ...elasticHz.filter((f) => f > lo && f < hi)]
@@ -204,6 +224,8 @@ export function responseTask(project: Project, request: ResponseTaskRequest): Re
   })
   return {
     request,
+    family: analysis.family.key,
+    motion,
     damping,
     firstHz: grid[0],
     points,
