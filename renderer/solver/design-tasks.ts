@@ -8,13 +8,15 @@ import { analyseProject, type FamilyAnalysis, type ModeResult } from '../../core
 import { designParameters, type DesignParameter } from '../../core/analysis/design-parameters'
 import { designSensitivities, type FamilySensitivity } from '../../core/analysis/family-sensitivity'
 import { scatterFrequencies } from '../../core/analysis/tolerance-scatter'
-import { evaluateReceptance, peakStressPerForce, pointWeights, receptanceModel, type ReceptanceModel } from '../../core/analysis/forced-response'
-import { excitationBands, type ExcitationBand } from '../../core/analysis/resonance'
-import { brentMinimize } from '../../core/optimize/brent-minimize'
+import { pointWeights, receptanceModel } from '../../core/analysis/forced-response'
+import { amplitudeAt, bandResponses, responseGrid, type BandResponse, type FrequencyAxis } from '../../core/analysis/response-bands'
 import { totalLength } from '../../core/model/geometry'
 import type { Motion, Project } from '../../core/model/project'
 import type { FamilyKey } from '../../core/model/families'
 import { partKey } from './part-key'
+
+// The grid and its axis are core's (core/analysis/response-bands.ts); the window imports them from here.
+export { responseGrid, type FrequencyAxis }
 
 export interface SensitivityTable {
   readonly parameters: DesignParameter[]
@@ -75,8 +77,6 @@ export function scatterShareTask(project: Project, run: ScatterShareRun, onProgr
   return { frequencies, nominal: nominal.modes.map(({ mode, motion, plane, family, frequencyHz }) => ({ mode, motion, plane, family, frequencyHz })), modes }
 }
 
-export type FrequencyAxis = 'linear' | 'log'
-
 export interface ResponseTaskRequest {
   /** The family whose response is computed (default: the project's first): a force along the axis, a torque, or a side force. */
   readonly family?: FamilyKey
@@ -89,18 +89,8 @@ export interface ResponseTaskRequest {
   readonly axis: FrequencyAxis
 }
 
-export interface ResponseBandRow {
-  readonly band: ExcitationBand
-  /** Largest |u/F| over the band, m/N, and where in the band. */
-  readonly peakAmplitude: number
-  readonly peakHz: number
-  /** peakAmplitude / |H(0)|; null for a bar without support (no static value). */
-  readonly amplification: number | null
-  /** Largest axial stress amplitude along the bar per newton over the band, Pa/N; where along the bar (m) and at what frequency. */
-  readonly stressPerForce: number
-  readonly stressAt: number
-  readonly stressHz: number
-}
+/** Per excitation band that drives the family: core's band response (core/analysis/response-bands.ts). */
+export type ResponseBandRow = BandResponse
 
 export interface ResponsePoint {
   readonly frequencyHz: number
@@ -122,51 +112,6 @@ export interface ResponseResult {
   /** The finite-element modes the response is built from. */
   readonly modes: { readonly mode: number; readonly frequencyHz: number; readonly rigidBody: boolean }[]
   readonly bands: ResponseBandRow[]
-}
-
-// A log axis from 0 starts this far below the top of the range.
-const LOG_DECADES = 3
-/** Samples of |H| across an excitation band before the largest is refined. */
-const BAND_SAMPLES = 200
-/** Frequencies across a band at which the stress along the bar is evaluated (plus the modes inside it and the peak of |H|). */
-const BAND_STRESS_SAMPLES = 17
-
-/**
- * The frequency grid: `points` frequencies evenly spaced on the chosen axis, plus each mode's
- * frequency and its half-power points f(1 ± ζ) inside the range, so no peak falls between samples.
- */
-export function responseGrid(request: Pick<ResponseTaskRequest, 'fromHz' | 'toHz' | 'points' | 'axis'>, modeHz: readonly number[], damping: number): number[] {
-  const { toHz, points, axis } = request
-  const fromHz = axis === 'log' && !(request.fromHz > 0) ? toHz / 10 ** LOG_DECADES : request.fromHz
-  const grid: number[] = []
-  for (let i = 0; i < points; i++) {
-    const t = points === 1 ? 0 : i / (points - 1)
-    grid.push(axis === 'log' ? fromHz * (toHz / fromHz) ** t : fromHz + (toHz - fromHz) * t)
-  }
-  for (const f of modeHz) for (const g of [f * (1 - damping), f, f * (1 + damping)]) if (g > fromHz && g < toHz) grid.push(g)
-  grid.sort((a, b) => a - b)
-  return grid.filter((f, i) => i === 0 || f !== grid[i - 1])
-}
-
-function amplitudeAt(model: ReceptanceModel, frequencyHz: number): number {
-  const [re, im] = evaluateReceptance(model, 2 * Math.PI * frequencyHz)
-  return Math.hypot(re, im)
-}
-
-/** The largest |H| over a band: a scan (with the modes inside it) refined by Brent's method around the best sample. */
-export function bandPeak(model: ReceptanceModel, band: readonly [number, number], modeHz: readonly number[]): { hz: number; amplitude: number } {
-  const [lo, hi] = band
-  if (!(hi > lo)) return { hz: lo, amplitude: amplitudeAt(model, lo) }
-  const step = (hi - lo) / BAND_SAMPLES
-  const candidates = Array.from({ length: BAND_SAMPLES + 1 }, (_, i) => lo + step * i)
-  for (const f of modeHz) if (f > lo && f < hi) candidates.push(f)
-  let best = { hz: lo, amplitude: -Infinity }
-  for (const hz of candidates) {
-    const amplitude = amplitudeAt(model, hz)
-    if (amplitude > best.amplitude) best = { hz, amplitude }
-  }
-  const refined = brentMinimize((f) => -amplitudeAt(model, f), Math.max(lo, best.hz - step), Math.min(hi, best.hz + step), 1e-10)
-  return -refined.fx > best.amplitude ? { hz: refined.x, amplitude: -refined.fx } : best
 }
 
 // The worker keeps the last solved part and family: changing the range, the points or the damping needs no new solve.
@@ -201,27 +146,8 @@ export function responseTask(project: Project, request: ResponseTaskRequest): Re
   const grid = responseGrid(request, elasticHz, damping)
   const points = grid.map((frequencyHz) => ({ frequencyHz, amplitude: amplitudeAt(model, frequencyHz) }))
   const staticFlexibility = model.staticFlexibility === null ? null : Math.abs(model.staticFlexibility)
-  // Only the excitations that drive this family.
-  const bands = excitationBands(project.excitations, project.motions).filter((b) => b.excites.includes(motion)).map((band): ResponseBandRow => {
-    const peak = bandPeak(model, band.hz, elasticHz)
-    const [lo, hi] = band.hz
-    const stressHz = [peak.hz, ...elasticHz.filter((f) => f > lo && f < hi)]
-    if (hi > lo) for (let i = 0; i < BAND_STRESS_SAMPLES; i++) stressHz.push(lo + ((hi - lo) * i) / (BAND_STRESS_SAMPLES - 1))
-    let stress = { stress: -Infinity, at: 0, hz: lo }
-    for (const hz of stressHz) {
-      const s = peakStressPerForce(analysis, request.forceAt, hz, damping)
-      if (s.stress > stress.stress) stress = { ...s, hz }
-    }
-    return {
-      band,
-      peakAmplitude: peak.amplitude,
-      peakHz: peak.hz,
-      amplification: staticFlexibility ? peak.amplitude / staticFlexibility : null,
-      stressPerForce: stress.stress,
-      stressAt: stress.at,
-      stressHz: stress.hz,
-    }
-  })
+  // The cached analysis may carry an earlier project's excitations (the key leaves them out): the bands are this project's.
+  const bands = bandResponses({ ...analysis, project }, model, request.forceAt)
   return {
     request,
     family: analysis.family.key,
