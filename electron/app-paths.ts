@@ -4,7 +4,7 @@
  */
 import { join } from 'node:path'
 
-export const DEMO_PROJECT_FILE = 'condensate-pump-hanger.rodwave.json'
+export const DEMO_PROJECT_FILE = 'cooling-water-pump-hanger.rodwave.json'
 export const RECENT_FILES_FILE = 'recent-projects.json'
 
 export interface AppLocation {

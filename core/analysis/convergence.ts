@@ -24,7 +24,7 @@ export interface ConvergenceSeries {
   readonly elementOrder: ElementOrder
   readonly mass: MassMatrixKind
   readonly points: ConvergencePoint[]
-  /** Observed order per mode from the finest pair of meshes whose errors stand above round-off. */
+  /** Observed order per mode from the finest pair of meshes in the asymptotic range (above round-off, agreeing with the next coarser pair). */
   readonly observedOrder: (number | null)[]
   /** Richardson estimate of the limit per mode from the three finest meshes. */
   readonly extrapolatedHz: (number | null)[]
@@ -98,17 +98,33 @@ export function convergenceStudy(project: Project, options: ConvergenceOptions =
   return { family, modes, referenceHz: reference.frequenciesHz, referenceMethod: reference.method, series }
 }
 
+/** Two successive pairs of meshes whose orders differ by no more than this are in the asymptotic range. */
+const ORDER_AGREEMENT = 0.2
+
+/**
+ * The order from the finest pair of meshes in the asymptotic range: both errors above round-off
+ * and the order agreeing with the next coarser pair's. Round-off that grows as the mesh refines
+ * (Hermite cubic stiffness scales as 1/h³) bends the error curve back up or flattens it; those
+ * pairs disagree with their coarser neighbour and are passed over. Without two agreeing pairs,
+ * the finest pair above round-off.
+ */
 function observedOrders(points: ConvergencePoint[], modes: number): (number | null)[] {
   const out: (number | null)[] = []
   for (let m = 0; m < modes; m++) {
-    let order: number | null = null
-    for (let i = points.length - 1; i >= 1 && order === null; i--) {
+    // Local order of each pair (points i − 1, i); null where an error is missing or round-off.
+    const local: (number | null)[] = [null]
+    for (let i = 1; i < points.length; i++) {
       const coarse = points[i - 1].errors[m]
       const fine = points[i].errors[m]
-      if (coarse === null || fine === null || coarse === undefined || fine === undefined) continue
-      if (Math.abs(fine) < ROUND_OFF || Math.abs(coarse) < ROUND_OFF) continue
-      order = Math.log(Math.abs(coarse) / Math.abs(fine)) / Math.log(points[i].elementsPerSegment / points[i - 1].elementsPerSegment)
+      const usable = typeof coarse === 'number' && typeof fine === 'number' && Math.abs(fine) >= ROUND_OFF && Math.abs(coarse) >= ROUND_OFF
+      local.push(usable ? Math.log(Math.abs(coarse) / Math.abs(fine)) / Math.log(points[i].elementsPerSegment / points[i - 1].elementsPerSegment) : null)
     }
+    let order: number | null = null
+    for (let i = local.length - 1; i >= 2 && order === null; i--) {
+      const [p, q] = [local[i], local[i - 1]]
+      if (p !== null && q !== null && Math.abs(p - q) <= ORDER_AGREEMENT) order = p
+    }
+    for (let i = local.length - 1; i >= 1 && order === null; i--) order = local[i]
     out.push(order)
   }
   return out

@@ -1,8 +1,12 @@
 /**
  * Scale drawing of the bar, side view: segments to scale along the axis with their
- * outer sizes, tubes in half-section (the bore shows), cones tapered, fixed ends as
- * hatched walls, point masses as blocks, springs to ground as zigzags, the segment
- * and overall lengths dimensioned.
+ * outer sizes, tubes in half-section (the bore shows), cones tapered, ends held along or
+ * about the axis (axial or torsion fixed) as hatched walls, bending supports where bending
+ * is analysed (pinned: a hinge on a triangle; clamped: jaws gripping the bar; guided: a
+ * sleeve on rollers), point masses as blocks, springs to ground as zigzags (a torsion spring
+ * with a ring round the bar, a rotational bending spring with a spiral), the segment and
+ * overall lengths dimensioned, and, when more than axial motion is analysed, each end's
+ * conditions in words.
  *
  * Pure layout: `barDrawing` returns shapes in the coordinates of a viewBox; the app's
  * Vue component renders those shapes and `barDrawingSvg` writes them as one
@@ -20,7 +24,7 @@
  * - title: text of the SVG's <title> (default: the project's title).
  */
 import { sectionOuterSize, segmentBoundaries, totalLength } from '../model/geometry'
-import type { Project, Section } from '../model/project'
+import type { GroundSpring, Motion, PartEnd, Project, Section } from '../model/project'
 import { displayUnit, toDisplay, type QuantityKind, type UnitSystem } from '../model/units'
 import { escapeHtml as escapeXml } from '../report/html'
 import { figure } from '../charts/chart-text'
@@ -100,6 +104,10 @@ export type ShapeRole =
   | 'mass'
   | 'spring'
   | 'ground'
+  | 'pin'
+  | 'clamp'
+  | 'guide'
+  | 'end-note'
   | 'dimension'
   | 'extension'
   | 'arrow'
@@ -122,6 +130,10 @@ interface ShapeBase {
   readonly segment?: number
   /** The attachment a shape belongs to. */
   readonly attachment?: { readonly kind: 'mass' | 'spring'; readonly index: number }
+  /** The end a support belongs to. */
+  readonly end?: 'start' | 'end'
+  /** The family a support or spring acts in. */
+  readonly motion?: Motion
 }
 
 export type DrawingShape =
@@ -166,7 +178,10 @@ const ARROW_LENGTH = 7
 const ARROW_HALF_WIDTH = 2.6
 
 /** Layout and shapes of the drawing. */
-export function barDrawing(project: Pick<Project, 'segments' | 'ends' | 'masses' | 'springs' | 'units' | 'title'>, options: BarDrawingOptions = {}): BarDrawing {
+/** What the drawing needs of a project; without `motions` it draws axial motion (a version 1 part). */
+export type DrawnProject = Pick<Project, 'segments' | 'ends' | 'masses' | 'springs' | 'units' | 'title'> & Partial<Pick<Project, 'motions'>>
+
+export function barDrawing(project: DrawnProject, options: BarDrawingOptions = {}): BarDrawing {
   const width = options.width ?? 960
   const height = options.height ?? 260
   const units = options.units ?? project.units
@@ -182,19 +197,27 @@ export function barDrawing(project: Pick<Project, 'segments' | 'ends' | 'masses'
   const bounds = segmentBoundaries(segments)
   const length = totalLength(segments)
   const labelled = segments.length <= MAX_LABELLED_SEGMENTS
-  const fixedStart = project.ends.start.axial === 'fixed'
-  const fixedEnd = project.ends.end.axial === 'fixed'
+  const motions = motionsOf(project)
+  // A wall where the end is held along the axis (axial) or about it (torsion), in a family analysed.
+  const held = (end: PartEnd) => (motions.includes('axial') && end.axial === 'fixed') || (motions.includes('torsion') && end.torsion === 'fixed')
+  const fixedStart = held(project.ends.start)
+  const fixedEnd = held(project.ends.end)
+  const bending = motions.includes('bending')
+  // Each end's conditions in words, when a family beside axial motion is analysed.
+  const endNotes = motions.length > 1 || motions[0] !== 'axial' ? (['start', 'end'] as const).map((end) => endConditionWords(project.ends[end], motions)) : null
 
   const maxSize = Math.max(...segments.flatMap((s) => [sectionOuterSize(s.section, 0), sectionOuterSize(s.section, 1)]))
   const charWidth = 0.6 * fontSize
   const line = fontSize + 4
   const hasSprings = project.springs.length > 0
   const springDrop = hasSprings ? 30 : 0
+  // Room under the bar for the springs to ground and a pinned bending support's triangle, whichever needs more.
+  const dropBelow = Math.max(springDrop + (hasSprings ? 8 : 0), motionsOf(project).includes('bending') ? 20 : 0)
   const sectionLabels = labelled ? segments.map((s) => sectionLabel(s.section, units)) : []
   const lengthLabels = labelled ? segments.map((s) => quantityText(units, 'length', s.length)) : []
   const attachmentItems = [
     ...project.masses.map((m, index) => ({ kind: 'mass' as const, index, at: m.at, label: attachmentLabel('mass', m.mass, m.label, units) })),
-    ...project.springs.map((s, index) => ({ kind: 'spring' as const, index, at: s.at, label: attachmentLabel('spring', s.stiffness, s.label, units) })),
+    ...project.springs.map((s, index) => ({ kind: 'spring' as const, index, at: s.at, label: springLabel(s, units), motion: s.motion ?? ('axial' as Motion), rotational: (s.rotationalStiffness ?? 0) > 0 && s.motion === 'bending' })),
   ].sort((a, b) => a.at - b.at)
   const clampCentre = (centre: number, labelWidth: number) => Math.min(Math.max(centre, labelWidth / 2 + 2), width - labelWidth / 2 - 2)
   const labelBox = (centre: number, label: string) => {
@@ -225,7 +248,7 @@ export function barDrawing(project: Pick<Project, 'segments' | 'ends' | 'masses'
     const chainY = 6 + (sectionRowCount + lengthRowCount) * line + 2
     const barZoneTop = chainY + 8
     // Below the bar: springs, attachment labels, the overall dimension, the note.
-    const below = springDrop + (hasSprings ? 8 : 0) + attachmentRowCount * line + 18 + 2 * fontSize + 4
+    const below = dropBelow + attachmentRowCount * line + 18 + 2 * fontSize + 4 + (endNotes ? line : 0)
     const barZone = Math.max(12, Math.min(160, height - barZoneTop - below))
     return {
       originX, px, sectionBoxes, lengthBoxes, attachmentBoxes, sectionRows, lengthRows, attachmentRows,
@@ -316,14 +339,17 @@ export function barDrawing(project: Pick<Project, 'segments' | 'ends' | 'masses'
 
   // Fixed ends: a wall hatched on its outer side.
   const wallHalf = Math.min(barZone / 2 + 4, half(maxSize) + 12)
-  const wall = (x: number, outward: -1 | 1) => {
-    shapes.push({ kind: 'line', x1: x, y1: axisY - wallHalf, x2: x, y2: axisY + wallHalf, role: 'support', style: { stroke: theme.support, strokeWidth: 2 } })
-    for (let yy = axisY - wallHalf; yy < axisY + wallHalf - 1; yy += 6) {
-      shapes.push({ kind: 'line', x1: x, y1: yy + 6, x2: x + outward * 8, y2: yy, role: 'hatch', style: { stroke: theme.support, strokeWidth: 0.8 } })
+  // Where a pinned bending support stands under an end, the wall stops at the bar's lower edge so that both read.
+  const pinnedAt = (end: 'start' | 'end') => bending && project.ends[end].bending === 'pinned'
+  const wall = (x: number, outward: -1 | 1, bottom: number) => {
+    shapes.push({ kind: 'line', x1: x, y1: axisY - wallHalf, x2: x, y2: bottom, role: 'support', style: { stroke: theme.support, strokeWidth: 2 } })
+    for (let yy = axisY - wallHalf; yy < bottom - 1; yy += 6) {
+      shapes.push({ kind: 'line', x1: x, y1: Math.min(yy + 6, bottom), x2: x + outward * 8, y2: yy, role: 'hatch', style: { stroke: theme.support, strokeWidth: 0.8 } })
     }
   }
-  if (fixedStart) wall(px(0), -1)
-  if (fixedEnd) wall(px(length), 1)
+  const edgeAt = (x: number) => axisY + half(outerSizeAt(segments, bounds, x))
+  if (fixedStart) wall(px(0), -1, pinnedAt('start') ? edgeAt(0) : axisY + wallHalf)
+  if (fixedEnd) wall(px(length), 1, pinnedAt('end') ? edgeAt(length) : axisY + wallHalf)
 
   // Attachments: masses as blocks across the bar, springs as zigzags down to ground.
   const barHalfAt = (x: number) => half(outerSizeAt(segments, bounds, x))
@@ -352,14 +378,64 @@ export function barDrawing(project: Pick<Project, 'segments' | 'ends' | 'masses'
       points.push([x, zigTop])
       for (let k = 1; k <= coils; k++) points.push([x + (k % 2 ? 5 : -5), zigTop + ((zigBottom - zigTop) * (k - 0.5)) / coils])
       points.push([x, zigBottom], [x, groundY])
-      shapes.push({ kind: 'polyline', points, role: 'spring', attachment: { kind: 'spring', index: a.index }, style: { stroke: theme.spring, strokeWidth: 1.4, fill: 'none' } })
+      const motion = a.kind === 'spring' ? a.motion : 'axial'
+      shapes.push({ kind: 'polyline', points, role: 'spring', attachment: { kind: 'spring', index: a.index }, motion, style: { stroke: theme.spring, strokeWidth: 1.4, fill: 'none' } })
+      if (motion === 'torsion') {
+        // A ring round the bar: the spring resists turning about the axis.
+        shapes.push({ kind: 'polyline', points: ellipsePoints(x, axisY, 4, r + 5), role: 'spring', attachment: { kind: 'spring', index: a.index }, motion, style: { stroke: theme.spring, strokeWidth: 1.4, fill: 'none' } })
+      } else if (a.kind === 'spring' && a.rotational) {
+        // A spiral on the axis: the spring resists the slope.
+        shapes.push({ kind: 'polyline', points: spiralPoints(x, axisY - r - 8, 6), role: 'spring', attachment: { kind: 'spring', index: a.index }, motion, style: { stroke: theme.spring, strokeWidth: 1.2, fill: 'none' } })
+      }
       shapes.push({ kind: 'line', x1: x - 9, y1: groundY, x2: x + 9, y2: groundY, role: 'ground', attachment: { kind: 'spring', index: a.index }, style: { stroke: theme.support, strokeWidth: 1.5 } })
       for (let k = -9; k < 9; k += 4) {
         shapes.push({ kind: 'line', x1: x + k, y1: groundY + 5, x2: x + k + 4, y2: groundY, role: 'hatch', style: { stroke: theme.support, strokeWidth: 0.8 } })
       }
     }
   }
-  const belowTop = axisY + barZone / 2 + springDrop + (hasSprings ? 8 : 0)
+  // Bending supports, over the wall and the attachments so that they read: where the end is held sideways or against turning.
+  if (bending) {
+    for (const end of ['start', 'end'] as const) {
+      const condition = project.ends[end].bending
+      const outward: -1 | 1 = end === 'start' ? -1 : 1
+      const x = end === 'start' ? px(0) : px(length)
+      const r = half(outerSizeAt(segments, bounds, end === 'start' ? 0 : length))
+      const colour = theme.support
+      const tag = { end, motion: 'bending' as Motion }
+      if (condition === 'pinned') {
+        // A hinge under the bar's edge, on a triangle down to hatched ground.
+        const top = axisY + Math.max(r, 1)
+        const base = top + 14
+        shapes.push({ kind: 'polygon', points: [[x, top + 3], [x - 7, base], [x + 7, base]], role: 'pin', ...tag, style: { fill: theme.background, stroke: colour, strokeWidth: 1.3 } })
+        shapes.push({ kind: 'polygon', points: circlePoints(x, top + 3, 2.6), role: 'pin', ...tag, style: { fill: theme.background, stroke: colour, strokeWidth: 1.3 } })
+        shapes.push({ kind: 'line', x1: x - 10, y1: base, x2: x + 10, y2: base, role: 'ground', ...tag, style: { stroke: colour, strokeWidth: 1.5 } })
+        for (let k = -10; k < 10; k += 4) shapes.push({ kind: 'line', x1: x + k, y1: base + 4, x2: x + k + 4, y2: base, role: 'hatch', ...tag, style: { stroke: colour, strokeWidth: 0.8 } })
+      } else if (condition === 'clamped') {
+        // Jaws gripping the bar above and below, just inside the end.
+        const jaw = Math.min(10, Math.max(4, 0.5 * r))
+        const w = 8
+        const left = outward < 0 ? x : x - w
+        shapes.push({ kind: 'rect', x: left, y: axisY - r - jaw, width: w, height: jaw, role: 'clamp', ...tag, style: { fill: colour, stroke: colour, strokeWidth: 0.8 } })
+        shapes.push({ kind: 'rect', x: left, y: axisY + r, width: w, height: jaw, role: 'clamp', ...tag, style: { fill: colour, stroke: colour, strokeWidth: 0.8 } })
+      } else if (condition === 'guided') {
+        // A sleeve that keeps the end square, on rollers against a track: free to slide sideways.
+        const sleeve = Math.max(r + 3, 6)
+        const track = x + outward * 14
+        shapes.push({ kind: 'line', x1: x, y1: axisY - sleeve, x2: x + outward * 8, y2: axisY - sleeve, role: 'guide', ...tag, style: { stroke: colour, strokeWidth: 1.4 } })
+        shapes.push({ kind: 'line', x1: x, y1: axisY + sleeve, x2: x + outward * 8, y2: axisY + sleeve, role: 'guide', ...tag, style: { stroke: colour, strokeWidth: 1.4 } })
+        shapes.push({ kind: 'line', x1: x + outward * 8, y1: axisY - sleeve, x2: x + outward * 8, y2: axisY + sleeve, role: 'guide', ...tag, style: { stroke: colour, strokeWidth: 1.4 } })
+        for (const dy of [-sleeve / 2, sleeve / 2]) {
+          shapes.push({ kind: 'polygon', points: circlePoints(x + outward * 11, axisY + dy, 3), role: 'guide', ...tag, style: { fill: theme.background, stroke: colour, strokeWidth: 1 } })
+        }
+        shapes.push({ kind: 'line', x1: track, y1: axisY - sleeve - 6, x2: track, y2: axisY + sleeve + 6, role: 'guide', ...tag, style: { stroke: colour, strokeWidth: 1.5 } })
+        for (let yy = axisY - sleeve - 6; yy < axisY + sleeve + 5; yy += 5) {
+          shapes.push({ kind: 'line', x1: track, y1: yy + 5, x2: track + outward * 5, y2: yy, role: 'hatch', ...tag, style: { stroke: colour, strokeWidth: 0.8 } })
+        }
+      }
+    }
+  }
+
+  const belowTop = axisY + barZone / 2 + dropBelow
   const attachmentLabelTop = belowTop + fontSize
   // Segment length chain above the bar, with extension lines from the outline.
   if (labelled) {
@@ -390,6 +466,11 @@ export function barDrawing(project: Pick<Project, 'segments' | 'ends' | 'masses'
   const overallText = `Overall ${quantityText(units, 'length', length)}`
   shapes.push({ kind: 'rect', x: px(length / 2) - (overallText.length * charWidth) / 2 - 4, y: overallY - fontSize / 2 - 1, width: overallText.length * charWidth + 8, height: fontSize + 2, role: 'label', style: { fill: theme.background } })
   text(px(length / 2), overallY + fontSize / 2 - 2, overallText, 'middle', 'label', {}, { fontWeight: 600 })
+  const notesY = overallY + fontSize / 2 + 6 + fontSize
+  if (endNotes) {
+    text(Math.max(6, px(0) - 20), notesY, `Start: ${endNotes[0]}`, 'start', 'end-note', { end: 'start' }, { fill: theme.mutedText, fontSize: fontSize - 1 })
+    text(Math.min(width - 6, px(length) + 20), notesY, `End: ${endNotes[1]}`, 'end', 'end-note', { end: 'end' }, { fill: theme.mutedText, fontSize: fontSize - 1 })
+  }
 
   attachmentItems.forEach((a, k) => {
     const row = attachmentRows[k]
@@ -409,7 +490,7 @@ export function barDrawing(project: Pick<Project, 'segments' | 'ends' | 'masses'
       : `Diameters drawn ×${figure(exaggeration, 2)} against lengths (lengths to scale)`
   const notes = [scaleNote]
   if (!labelled) notes.push(`${segments.length} segments: segment dimensions left out`)
-  text(6, Math.min(height - 4, overallY + fontSize / 2 + 6 + fontSize), notes.join(' · '), 'start', 'note', {}, { fill: theme.mutedText, fontSize: fontSize - 1 })
+  text(6, Math.min(height - 4, notesY + (endNotes ? line : 0)), notes.join(' · '), 'start', 'note', {}, { fill: theme.mutedText, fontSize: fontSize - 1 })
 
   return {
     width,
@@ -423,7 +504,7 @@ export function barDrawing(project: Pick<Project, 'segments' | 'ends' | 'masses'
 }
 
 /** The drawing as one standalone <svg> element (presentation attributes, no stylesheet). */
-export function barDrawingSvg(project: Pick<Project, 'segments' | 'ends' | 'masses' | 'springs' | 'units' | 'title'>, options: BarDrawingOptions = {}): string {
+export function barDrawingSvg(project: DrawnProject, options: BarDrawingOptions = {}): string {
   const drawing = barDrawing(project, options)
   const theme: DrawingTheme = { ...LIGHT_DRAWING_THEME, ...options.theme }
   const parts: string[] = [
@@ -538,6 +619,50 @@ export function sectionLabel(section: Section, units: UnitSystem): string {
     case 'cone':
       return `⌀${size(section.startDiameter)}→${size(section.endDiameter)} ${unit}`
   }
+}
+
+function motionsOf(project: DrawnProject): readonly Motion[] {
+  return project.motions ?? ['axial']
+}
+
+/** Each family's condition at one end, in words: "axial fixed · torsion free · pinned". */
+export function endConditionWords(end: PartEnd, motions: readonly Motion[]): string {
+  const words: string[] = []
+  if (motions.includes('axial')) words.push(`axial ${end.axial}`)
+  if (motions.includes('torsion')) words.push(`twist ${end.torsion === 'fixed' ? 'held' : 'free'}`)
+  if (motions.includes('bending')) words.push(end.bending === 'free' ? 'free sideways' : end.bending)
+  return words.join(' · ')
+}
+
+/** A spring's label: its name, stiffness in the unit of its family, and the family where it is not axial. */
+function springLabel(spring: GroundSpring, units: UnitSystem): string {
+  const name = spring.label?.trim()
+  const motion = spring.motion ?? 'axial'
+  const parts: string[] = []
+  if (motion === 'torsion') parts.push(`${quantityText(units, 'rotationalStiffness', spring.stiffness)} torsion`)
+  else if (motion === 'bending') {
+    if (spring.stiffness > 0) parts.push(`${quantityText(units, 'stiffness', spring.stiffness)} sideways`)
+    if ((spring.rotationalStiffness ?? 0) > 0) parts.push(`${quantityText(units, 'rotationalStiffness', spring.rotationalStiffness as number)} rotational`)
+  } else parts.push(quantityText(units, 'stiffness', spring.stiffness))
+  const quantity = parts.join(', ')
+  return name ? `${name}, ${quantity}` : quantity
+}
+
+function circlePoints(cx: number, cy: number, r: number): [number, number][] {
+  return Array.from({ length: 12 }, (_, k) => [cx + r * Math.cos((k * Math.PI) / 6), cy + r * Math.sin((k * Math.PI) / 6)] as [number, number])
+}
+
+function ellipsePoints(cx: number, cy: number, rx: number, ry: number): [number, number][] {
+  return Array.from({ length: 25 }, (_, k) => [cx + rx * Math.cos((k * Math.PI) / 12), cy + ry * Math.sin((k * Math.PI) / 12)] as [number, number])
+}
+
+/** Two turns of an Archimedean spiral of outer radius r. */
+function spiralPoints(cx: number, cy: number, r: number): [number, number][] {
+  return Array.from({ length: 33 }, (_, k) => {
+    const t = (k / 32) * 4 * Math.PI
+    const rho = (r * k) / 32
+    return [cx + rho * Math.cos(t), cy + rho * Math.sin(t)] as [number, number]
+  })
 }
 
 function attachmentLabel(kind: 'mass' | 'spring', value: number, label: string | undefined, units: UnitSystem): string {

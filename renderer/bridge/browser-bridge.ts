@@ -6,9 +6,9 @@
  */
 import type { DocumentState, ExportRequest, ExportResult, MenuCommand, OpenResult, RecoveredWork, RodwaveBridge, SaveRequest, SaveResult } from './contract'
 import { decodeProjectBytes, MAX_PROJECT_BYTES } from '../../core/model/project-bytes'
-import demoDocument from '../../examples/condensate-pump-hanger.rodwave.json'
+import demoDocument from '../../examples/cooling-water-pump-hanger.rodwave.json'
 
-export const DEMO_NAME = 'condensate-pump-hanger.rodwave.json'
+export const DEMO_NAME = 'cooling-water-pump-hanger.rodwave.json'
 /** Each page load keeps its recovery copy under its own key, so an earlier load's copy waits for the user's answer. */
 const RECOVERY_PREFIX = 'rodwave.recovery.'
 /** The single recovery key of Rodwave 0.1, offered like any earlier copy. */

@@ -7,8 +7,10 @@
 import type { DesignParameter } from '../../core/analysis/design-parameters'
 import type { Sensitivity } from '../../core/analysis/sensitivity'
 import type { QuantityKind, UnitSystem } from '../../core/model/units'
+import type { Motion } from '../../core/model/project'
 import { fromScreen, screenUnit, toScreen } from './quantity'
 import { formatFigure, formatScientific, MINUS } from '../../core/report/number-format'
+import { modeName } from './motion'
 
 /** Segment lengths step in the section unit (mm, in): 1 % of a rod's length reads as whole millimetres. */
 export function stepKind(quantity: QuantityKind): QuantityKind {
@@ -68,10 +70,12 @@ const NO_EFFECT = 1e-9
 export function sensitivitySentence(s: Pick<Sensitivity, 'mode' | 'derivative' | 'relative'>, parameter: Pick<DesignParameter, 'label' | 'target' | 'quantity' | 'value'>, units: UnitSystem): string {
   const step = sensitivityStep(parameter, units)
   const change = Math.abs(s.derivative) * step.stepSI
+  // A sensitivity of one family among several names it: "raises bending mode 1".
+  const mode = 'motion' in s ? modeName(s) : `mode ${s.mode}`
   if (!(Math.abs(s.relative) >= NO_EFFECT) || !Number.isFinite(change)) {
-    return `Changing the ${parameter.label} by ${step.text} leaves mode ${s.mode} unchanged (to first order)`
+    return `Changing the ${parameter.label} by ${step.text} leaves ${mode} unchanged (to first order)`
   }
-  return `${capitalised(changeWords(parameter, s.derivative > 0, step.text))} raises mode ${s.mode} by ${formatFigure(change, 2)} Hz`
+  return `${capitalised(changeWords(parameter, s.derivative > 0, step.text))} raises ${mode} by ${formatFigure(change, 2)} Hz`
 }
 
 /** df/dp per unit of the step: "−21.64" (Hz per mm, with derivativeUnit). */
@@ -90,9 +94,9 @@ export function relativeText(relative: number): string {
   return relative < 0 ? `${MINUS}${text}` : text
 }
 
-/** Sensitivities of one mode, largest relative effect first. */
-export function rankedSensitivities<T extends Pick<Sensitivity, 'mode' | 'relative'>>(sensitivities: readonly T[], mode: number): T[] {
-  return sensitivities.filter((s) => s.mode === mode).sort((a, b) => Math.abs(b.relative) - Math.abs(a.relative))
+/** Sensitivities of one mode (of one family, when given), largest relative effect first. */
+export function rankedSensitivities<T extends Pick<Sensitivity, 'mode' | 'relative'> & { readonly family?: string }>(sensitivities: readonly T[], mode: number, family?: string): T[] {
+  return sensitivities.filter((s) => s.mode === mode && (family === undefined || s.family === family)).sort((a, b) => Math.abs(b.relative) - Math.abs(a.relative))
 }
 
 /** |u/F| in the display unit of receptance (m/N or in/lbf), as a power of ten. */
@@ -112,4 +116,56 @@ export function stressPerForceValue(pascalPerNewton: number, units: UnitSystem):
 
 export function stressPerForceText(pascalPerNewton: number, units: UnitSystem): string {
   return formatFigure(stressPerForceValue(pascalPerNewton, units), 3)
+}
+
+/**
+ * What a forced response of a family is in words and units: a force along the axis and the
+ * displacement (u/F, m/N), a torque and the twist (θ/T, rad/(N·m)), a side force and the
+ * deflection (w/F, m/N); the stress is the axial stress, the largest shear stress, or the
+ * bending stress at the surface, per unit of the load.
+ */
+export interface ResponseWords {
+  /** "force", "torque", "side force". */
+  readonly load: string
+  /** "|u/F|", "|θ/T|", "|w/F|". */
+  readonly ratio: string
+  /** "displacement", "twist", "deflection". */
+  readonly readout: string
+  readonly stress: string
+  /** Unit of the ratio on screen and the factor from SI to it. */
+  readonly ratioUnit: string
+  readonly ratioFactor: number
+  /** Unit of stress per load on screen and the factor from SI (Pa/N, Pa/(N·m)) to it. */
+  readonly stressUnit: string
+  readonly stressFactor: number
+}
+
+export function responseWords(motion: Motion, units: UnitSystem): ResponseWords {
+  const stress = screenUnit(units, 'stress')
+  if (motion === 'torsion') {
+    const torque = screenUnit(units, 'torque')
+    const angle = screenUnit(units, 'angle')
+    return {
+      load: 'torque',
+      ratio: '|θ/T|',
+      readout: 'twist',
+      stress: 'largest shear stress',
+      ratioUnit: `${angle.symbol}/(${torque.symbol})`,
+      ratioFactor: torque.toSI / angle.toSI,
+      stressUnit: `${stress.symbol}/(${torque.symbol})`,
+      stressFactor: torque.toSI / stress.toSI,
+    }
+  }
+  const receptance = screenUnit(units, 'receptance')
+  const force = screenUnit(units, 'force')
+  return {
+    load: motion === 'bending' ? 'side force' : 'force',
+    ratio: motion === 'bending' ? '|w/F|' : '|u/F|',
+    readout: motion === 'bending' ? 'deflection' : 'displacement',
+    stress: motion === 'bending' ? 'bending stress at the surface' : 'axial stress',
+    ratioUnit: receptance.symbol,
+    ratioFactor: 1 / receptance.toSI,
+    stressUnit: `${stress.symbol}/${force.symbol}`,
+    stressFactor: force.toSI / stress.toSI,
+  }
 }

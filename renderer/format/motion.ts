@@ -42,3 +42,42 @@ export function motionsText(items: readonly object[]): string {
 export function verdictText(status: ResonanceStatus, of: MotionOfResult = { motion: 'axial', plane: null }): string {
   return status === 'clear' ? `clear in ${motionWords(of)}` : 'conflict'
 }
+
+const FAMILY_TITLES: Record<Motion, string> = { axial: 'Axial', torsion: 'Torsion', bending: 'Bending' }
+
+/** A family as a heading or a table cell: "Axial", "Torsion", "Bending", "Bending (weak plane)". */
+export function familyTitle(of: MotionOfResult): string {
+  return of.plane ? `${FAMILY_TITLES[of.motion]} (${of.plane} plane)` : FAMILY_TITLES[of.motion]
+}
+
+/** A short family name for tight cells: "axial", "torsion", "bending", "bending, weak". */
+export function familyShort(of: MotionOfResult): string {
+  return of.plane ? `${of.motion}, ${of.plane}` : of.motion
+}
+
+/** A mode named with its family: "axial mode 2", "bending mode 1 (weak plane)". */
+export function modeName(item: object & { readonly mode: number }): string {
+  const of = motionOf(item)
+  return `${of.motion} mode ${item.mode}${of.plane ? ` (${of.plane} plane)` : ''}`
+}
+
+/**
+ * A pair's plain-language sentence (core's pairSentence, "Mode 1 at 51.2 Hz is 2.6 % above …")
+ * with the family in conflict named first: "Bending mode 1 at 51.2 Hz is 2.6 % above …".
+ */
+export function familyPairSentence(sentence: string, pair: object & { readonly mode: number }): string {
+  const name = modeName(pair)
+  return sentence.replace(/^Mode \d+/, name.charAt(0).toUpperCase() + name.slice(1))
+}
+
+/** A mode in a tight cell or a menu: "axial 2", "bending 1 (weak)". */
+export function modeTag(item: object & { readonly mode: number }): string {
+  const of = motionOf(item)
+  return `${of.motion} ${item.mode}${of.plane ? ` (${of.plane})` : ''}`
+}
+
+/** A family key in words: "axial", "torsion", "bending", "bending (weak plane)". */
+export function familyKeyWords(key: string): string {
+  const [motion, plane] = key.split('-')
+  return plane ? `${motion} (${plane} plane)` : motion
+}

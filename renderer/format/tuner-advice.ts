@@ -11,24 +11,46 @@ import { excitationBands, separationFromBand, type ExcitationBand } from '../../
 import type { DesignParameter } from '../../core/analysis/design-parameters'
 import type { Sensitivity } from '../../core/analysis/sensitivity'
 import type { TuneResult } from '../../core/analysis/tuner'
-import type { Excitation } from '../../core/model/project'
+import type { Excitation, Motion } from '../../core/model/project'
 
 /** The mode–band pair that sets the smallest separation. */
 export interface ClosestPair {
   readonly mode: number
+  /** The mode's family key and motion, when the frequencies come family by family (a tuner's result). */
+  readonly family?: string
+  readonly motion?: Motion
+  readonly plane?: 'weak' | 'strong' | null
   readonly frequencyHz: number
   readonly band: ExcitationBand
   readonly separation: number
 }
 
-/** The pair with the smallest |separation| among elastic modes (f > 0) and every band; null without bands. */
-export function closestPairAt(frequenciesHz: readonly number[], bands: readonly ExcitationBand[]): ClosestPair | null {
+/** Where each of a tuner's frequencies belongs: its family key and its mode number within the family. */
+export type FrequencyLayout = readonly { readonly family: string; readonly mode: number }[]
+
+/** A family key's motion and plane: "bending-weak" → bending, weak. */
+export function familyOfKey(key: string): { motion: Motion; plane: 'weak' | 'strong' | null } {
+  const [motion, plane] = key.split('-')
+  return { motion: motion as Motion, plane: plane === 'weak' || plane === 'strong' ? plane : null }
+}
+
+/**
+ * The pair with the smallest |separation| among elastic modes (f > 0) and the bands; null without
+ * bands. With a layout, mode numbers and families come from it and a band is paired only with the
+ * families it drives (as the resonance check pairs them).
+ */
+export function closestPairAt(frequenciesHz: readonly number[], bands: readonly ExcitationBand[], layout?: FrequencyLayout): ClosestPair | null {
   let best: ClosestPair | null = null
   frequenciesHz.forEach((f, i) => {
     if (!(f > 0)) return
+    const place = layout?.[i]
+    const family = place ? familyOfKey(place.family) : null
     for (const band of bands) {
+      if (family && !band.excites.includes(family.motion)) continue
       const separation = separationFromBand(f, band.hz)
-      if (!best || Math.abs(separation) < Math.abs(best.separation)) best = { mode: i + 1, frequencyHz: f, band, separation }
+      if (!best || Math.abs(separation) < Math.abs(best.separation)) {
+        best = place && family ? { mode: place.mode, family: place.family, motion: family.motion, plane: family.plane, frequencyHz: f, band, separation } : { mode: i + 1, frequencyHz: f, band, separation }
+      }
     }
   })
   return best
@@ -80,23 +102,27 @@ export interface TuneAdviceInput {
   readonly bounds: readonly [number, number]
   readonly excitations: readonly Excitation[]
   readonly margin: number
-  /** Sensitivities of the part as it is (exact frequencies), if current. */
-  readonly sensitivities?: { readonly parameters: readonly DesignParameter[]; readonly sensitivities: readonly Sensitivity[] } | null
+  /** Sensitivities of the part as it is, if current (of every family; matched by family where they say theirs). */
+  readonly sensitivities?: { readonly parameters: readonly DesignParameter[]; readonly sensitivities: readonly (Sensitivity & { readonly family?: string })[] } | null
+  /** The families analysed: a band drives those its excitation names among them (every one by default). */
+  readonly motions?: readonly Motion[]
 }
 
 export function tuneAdvice(input: TuneAdviceInput): TuneAdvice {
   const { result, margin } = input
-  const bands = excitationBands(input.excitations)
-  const closest = closestPairAt(result.frequenciesHz, bands)
+  const bands = excitationBands(input.excitations, input.motions)
+  // A result of core's tuner says where each frequency belongs; older results (one family) do not.
+  const layout: FrequencyLayout | undefined = (result as { families?: FrequencyLayout }).families
+  const closest = closestPairAt(result.frequenciesHz, bands, layout)
   const clears = result.minSeparation !== null && result.minSeparation >= margin
   const improves = result.minSeparation !== null && result.before.minSeparation !== null && result.minSeparation > result.before.minSeparation + SAME_SEPARATION
-  const conflict = closestPairAt(result.before.frequenciesHz, bands)
+  const conflict = closestPairAt(result.before.frequenciesHz, bands, layout)
   if (clears || !conflict || Math.abs(conflict.separation) >= margin || !input.sensitivities) return { clears, improves, closest, conflict, widen: null, other: null }
 
   const needed = clearingChange(conflict.frequencyHz, conflict.band.hz, margin)
   const suggestion = (parameter: DesignParameter | undefined): SuggestedChange | null => {
     if (!parameter) return null
-    const s = input.sensitivities!.sensitivities.find((x) => x.mode === conflict.mode && x.parameter === parameter.path)
+    const s = input.sensitivities!.sensitivities.find((x) => x.mode === conflict.mode && x.parameter === parameter.path && (conflict.family === undefined || x.family === undefined || x.family === conflict.family))
     if (!s || !(Math.abs(s.relative) > NO_EFFECT)) return null
     const change = needed / s.relative
     if (!(1 + change >= SMALLEST_REMAINING) || !Number.isFinite(change)) return null

@@ -19,8 +19,9 @@ import {
   type MassComparison,
   type ProjectSource,
   type ReportTaskInput,
-  type SolvedModel,
+  type SolveOutcome,
 } from './solver-tasks'
+import type { FamilyKey } from '../../core/model/families'
 import {
   responseTask,
   scatterShareTask,
@@ -73,9 +74,10 @@ export interface ScatterOutcome {
 }
 
 export interface SolverClient {
-  solve(project: Project): Promise<SolvedModel>
-  compareMasses(project: Project): Promise<MassComparison>
-  converge(project: Project, onProgress: (fraction: number) => void): CancellableJob<ConvergenceStudy>
+  /** The project's modes, or the refusal of a part the analysis cannot solve (a compression past the buckling load). */
+  solve(project: Project): Promise<SolveOutcome>
+  compareMasses(project: Project, family?: FamilyKey): Promise<MassComparison>
+  converge(project: Project, onProgress: (fraction: number) => void, family?: FamilyKey): CancellableJob<ConvergenceStudy>
   report(input: ReportTaskInput): Promise<string>
   sensitivities(project: Project): Promise<SensitivityTable>
   tune(project: Project, request: TuneRequest): CancellableJob<TuneResult>
@@ -186,9 +188,9 @@ export function createWorkerSolverClient(createWorker: () => Worker): SolverClie
     return { result, cancel: () => channel.stop(new SolverCancelled()) }
   }
   let running: { started: number } | null = null
-  let queued: { project: Project; resolve(m: SolvedModel): void; reject(e: Error): void } | null = null
+  let queued: { project: Project; resolve(m: SolveOutcome): void; reject(e: Error): void } | null = null
 
-  const start = (project: Project): Promise<SolvedModel> => {
+  const start = (project: Project): Promise<SolveOutcome> => {
     const job = { started: performance.now() }
     running = job
     const result = solves.run<'solve'>({ kind: 'solve', project })
@@ -215,15 +217,15 @@ export function createWorkerSolverClient(createWorker: () => Worker): SolverClie
         return start(project)
       }
       queued?.reject(new SolverSuperseded())
-      return new Promise<SolvedModel>((resolve, reject) => {
+      return new Promise<SolveOutcome>((resolve, reject) => {
         queued = { project, resolve, reject }
       })
     },
-    compareMasses(project) {
-      return side.run<'compare-masses'>({ kind: 'compare-masses', project })
+    compareMasses(project, family) {
+      return side.run<'compare-masses'>({ kind: 'compare-masses', project, ...(family ? { family } : {}) })
     },
-    converge(project, onProgress) {
-      return dedicated<'converge'>({ kind: 'converge', project }, onProgress)
+    converge(project, onProgress, family) {
+      return dedicated<'converge'>({ kind: 'converge', project, ...(family ? { family } : {}) }, onProgress)
     },
     report(input) {
       return side.run<'report'>({ kind: 'report', input })
@@ -284,8 +286,8 @@ export function createInlineSolverClient(): SolverClient {
   }
   return {
     solve: (project) => later(() => solveTask(plainCopy(project))),
-    compareMasses: (project) => later(() => compareMassesTask(plainCopy(project))),
-    converge: (project, onProgress) => cancellableLater(() => convergenceTask(plainCopy(project), onProgress)),
+    compareMasses: (project, family) => later(() => compareMassesTask(plainCopy(project), family)),
+    converge: (project, onProgress, family) => cancellableLater(() => convergenceTask(plainCopy(project), onProgress, family)),
     report: (input) => later(() => reportTask(plainCopy(input))),
     sensitivities: (project) => later(() => sensitivityTask(plainCopy(project))),
     tune: (project, request) => cancellableLater(() => tuneParameter(plainCopy(project), request)),

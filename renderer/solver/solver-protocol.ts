@@ -1,13 +1,14 @@
 /** Messages between the window and the solver worker. */
 import type { ConvergenceStudy, Project, TuneRequest, TuneResult } from '../../core/index'
 import type { ProjectReadResult } from '../../core/model/project-schema'
-import type { MassComparison, ProjectSource, ReportTaskInput, SolvedModel } from './solver-tasks'
+import type { MassComparison, ProjectSource, ReportTaskInput, SolveOutcome } from './solver-tasks'
+import type { FamilyKey } from '../../core/model/families'
 import type { ResponseResult, ResponseTaskRequest, ScatterShare, ScatterShareRun, SensitivityTable } from './design-tasks'
 
 export type SolverRequest =
   | { readonly id: number; readonly kind: 'solve'; readonly project: Project }
-  | { readonly id: number; readonly kind: 'compare-masses'; readonly project: Project }
-  | { readonly id: number; readonly kind: 'converge'; readonly project: Project }
+  | { readonly id: number; readonly kind: 'compare-masses'; readonly project: Project; readonly family?: FamilyKey }
+  | { readonly id: number; readonly kind: 'converge'; readonly project: Project; readonly family?: FamilyKey }
   | { readonly id: number; readonly kind: 'report'; readonly input: ReportTaskInput }
   | { readonly id: number; readonly kind: 'sensitivities'; readonly project: Project }
   | { readonly id: number; readonly kind: 'tune'; readonly project: Project; readonly request: TuneRequest }
@@ -16,7 +17,7 @@ export type SolverRequest =
   | { readonly id: number; readonly kind: 'read-project'; readonly source: ProjectSource }
 
 export interface SolverResults {
-  solve: SolvedModel
+  solve: SolveOutcome
   'compare-masses': MassComparison
   converge: ConvergenceStudy
   report: string

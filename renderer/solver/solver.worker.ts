@@ -21,10 +21,10 @@ scope.addEventListener('message', (event) => {
         done(solveTask(request.project))
         break
       case 'compare-masses':
-        done(compareMassesTask(request.project))
+        done(compareMassesTask(request.project, request.family))
         break
       case 'converge':
-        done(convergenceTask(request.project, progress))
+        done(convergenceTask(request.project, progress, request.family))
         break
       case 'report':
         done(reportTask(request.input))

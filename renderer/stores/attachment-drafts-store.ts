@@ -8,6 +8,7 @@
 import { defineStore } from 'pinia'
 import { ref, watch } from 'vue'
 import { readProjectDocument } from '../../core/model/project-schema'
+import type { Motion } from '../../core/model/project'
 import * as edits from './project-edits'
 import { useProjectStore } from './project-store'
 
@@ -19,11 +20,13 @@ export interface AttachmentDraft {
   at: number | undefined
   value: number | undefined
   label: string
+  /** A spring's family (axial unless chosen). */
+  motion: Motion
   /** Fields whose problems are shown: typed in, or all of them after a confirm that was refused. */
   shown: DraftField[]
 }
 
-const FIELD_OF_PATH: Record<string, DraftField> = { at: 'at', mass: 'value', stiffness: 'value', label: 'label' }
+const FIELD_OF_PATH: Record<string, DraftField> = { at: 'at', mass: 'value', stiffness: 'value', label: 'label', rotationalStiffness: 'value' }
 
 export const useAttachmentDraftsStore = defineStore('attachment-drafts', () => {
   const project = useProjectStore()
@@ -37,7 +40,7 @@ export const useAttachmentDraftsStore = defineStore('attachment-drafts', () => {
   /** Starts a draft row; returns its id. */
   function add(list: edits.AttachmentList): number {
     const start = edits.attachmentStart(project.draft, list, drafts.value[list].length)
-    const draft: AttachmentDraft = { id: nextId++, at: start.at, value: undefined, label: start.label, shown: [] }
+    const draft: AttachmentDraft = { id: nextId++, at: start.at, value: undefined, label: start.label, motion: 'axial', shown: [] }
     drafts.value[list].push(draft)
     return draft.id
   }
@@ -48,6 +51,12 @@ export const useAttachmentDraftsStore = defineStore('attachment-drafts', () => {
     if (field === 'label') draft.label = String(value ?? '')
     else draft[field] = value as number | undefined
     if (!draft.shown.includes(field)) draft.shown.push(field)
+  }
+
+  /** A spring draft's family. */
+  function setMotion(id: number, motion: Motion): void {
+    const draft = find('springs', id)
+    if (draft) draft.motion = motion
   }
 
   /** The draft's problems by field, in the file reader's words, as if it were added to the part now. */
@@ -102,5 +111,5 @@ export const useAttachmentDraftsStore = defineStore('attachment-drafts', () => {
     { flush: 'sync' },
   )
 
-  return { drafts, add, update, problems, shownProblem, confirm, discard }
+  return { drafts, add, update, setMotion, problems, shownProblem, confirm, discard }
 })

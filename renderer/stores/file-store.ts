@@ -88,7 +88,9 @@ export const useFileStore = defineStore('file', () => {
     project.load(loaded, source)
     refused.value = null
     view.selectedSegment = null
-    view.selectedModes = [0, 1, 2].filter((i) => i < loaded.analysis.modes)
+    // Nothing ticked: the charts show the first modes of the family most worth a look (Modes view).
+    view.selectedModes = []
+    view.shapeFamily = null
     void results.solveCurrent()
   }
 

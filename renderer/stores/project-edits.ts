@@ -6,7 +6,7 @@
  */
 import { libraryMaterial } from '../../core/model/materials'
 import { meanSectionArea, sectionArea, sectionOuterSize, segmentBoundaries, totalLength } from '../../core/model/geometry'
-import type { EndCondition, Excitation, Material, Project, Section, SectionShape, Tolerances } from '../../core/model/project'
+import { MOTIONS, type BendingEndCondition, type BendingTheory, type EndCondition, type Excitation, type GroundSpring, type Material, type Motion, type PartEnd, type Project, type Section, type SectionShape, type Tolerances } from '../../core/model/project'
 
 /** A value typed in a field: a number, NaN (not a number) or undefined (empty). */
 export type Typed = number | undefined
@@ -116,8 +116,37 @@ export function setSectionDimension(project: Project, index: number, key: string
   assign(project.segments[index].section as unknown as Record<string, unknown>, key, value)
 }
 
+/** The axial condition at one end (the only one of a version 1 part). */
 export function setEnd(project: Project, end: 'start' | 'end', condition: EndCondition): void {
   project.ends[end].axial = condition
+}
+
+/** One family's condition at one end. */
+export function setFamilyEnd<F extends keyof PartEnd>(project: Project, end: 'start' | 'end', family: F, condition: PartEnd[F]): void {
+  project.ends[end][family] = condition
+}
+
+/** Analyses a family or stops analysing it; the last one stays (a part is analysed in at least one). */
+export function setMotion(project: Project, motion: Motion, on: boolean): void {
+  const next = MOTIONS.filter((m) => (m === motion ? on : project.motions.includes(m)))
+  if (next.length) project.motions = next
+}
+
+/** The steady axial force (tension positive); an emptied field removes it (no preload). */
+export function setPreload(project: Project, value: Typed): void {
+  assign(project, 'preload', value)
+}
+
+export function setBendingTheory(project: Project, theory: BendingTheory): void {
+  if (theory === 'euler-bernoulli') delete project.analysis.bendingTheory
+  else project.analysis.bendingTheory = theory
+}
+
+export const BENDING_END_WORDS: Record<BendingEndCondition, string> = {
+  clamped: 'clamped (no deflection, no slope)',
+  pinned: 'pinned (no deflection)',
+  guided: 'guided (no slope, slides sideways)',
+  free: 'free',
 }
 
 /** A new project material, starting from carbon steel's handbook values. */
@@ -141,8 +170,34 @@ export function renameMaterial(project: Project, index: number, id: string): voi
   for (const s of project.segments) if (s.material === old) s.material = id
 }
 
-export function updateMaterial(project: Project, index: number, key: 'name' | 'youngsModulus' | 'density', value: Typed | string): void {
+export type MaterialField = 'name' | 'youngsModulus' | 'density' | 'poissonRatio' | 'shearModulus'
+
+export function updateMaterial(project: Project, index: number, key: MaterialField, value: Typed | string): void {
   assign(project.materials[index] as Material, key, value)
+}
+
+/** How a material's shear stiffness is given: Poisson's ratio (G = E / (2(1 + ν))) or the shear modulus itself. */
+export type ShearGiven = 'poissonRatio' | 'shearModulus'
+
+export function shearGiven(material: Pick<Material, 'shearModulus'>): ShearGiven {
+  return material.shearModulus !== undefined ? 'shearModulus' : 'poissonRatio'
+}
+
+/** Gives a material's shear stiffness the other way, converted where both E and the old value are numbers. */
+export function setShearGiven(project: Project, index: number, given: ShearGiven): void {
+  const m = project.materials[index]
+  if (shearGiven(m) === given) return
+  const E = m.youngsModulus
+  const ok = (v: unknown): v is number => typeof v === 'number' && Number.isFinite(v)
+  if (given === 'shearModulus') {
+    const nu = m.poissonRatio
+    delete m.poissonRatio
+    m.shearModulus = ok(nu) && ok(E) && nu > -1 ? round(E / (2 * (1 + nu))) : round(E / 2.6)
+  } else {
+    const G = m.shearModulus
+    delete m.shearModulus
+    m.poissonRatio = ok(G) && ok(E) && G > 0 ? round(E / (2 * G) - 1) : 0.3
+  }
 }
 
 /** Segments (1-based numbers) that use a material. */
@@ -168,19 +223,52 @@ export function attachmentStart(project: Project, list: AttachmentList, pending 
   return { at, label: `${list === 'masses' ? 'Mass' : 'Spring'} ${project[list].length + pending + 1}` }
 }
 
-/** A confirmed attachment joins the part (a draft row only takes part from here on). */
-export function addAttachment(project: Project, list: AttachmentList, item: { at: Typed; value: Typed; label: string }): void {
+/** A confirmed attachment joins the part (a draft row only takes part from here on). A spring acts in `motion` (axial when not given). */
+export function addAttachment(project: Project, list: AttachmentList, item: { at: Typed; value: Typed; label: string; motion?: Motion }): void {
   const entry: Record<string, unknown> = {}
   assign(entry, 'at', item.at)
+  if (list === 'springs' && item.motion && item.motion !== 'axial') entry.motion = item.motion
   assign(entry, list === 'masses' ? 'mass' : 'stiffness', item.value)
   if (item.label.trim() !== '') entry.label = item.label
   ;(project[list] as unknown as Record<string, unknown>[]).push(entry)
 }
 
-export function updateAttachment(project: Project, list: AttachmentList, index: number, key: 'at' | 'mass' | 'stiffness' | 'label', value: Typed | string): void {
+export type AttachmentField = 'at' | 'mass' | 'stiffness' | 'label' | 'polarInertia' | 'transverseInertia' | 'rotationalStiffness'
+
+/** An emptied inertia or rotational stiffness is removed (it is optional); other emptied fields read as "is required". */
+const OPTIONAL_FIELDS = new Set<AttachmentField>(['polarInertia', 'transverseInertia', 'rotationalStiffness'])
+
+export function updateAttachment(project: Project, list: AttachmentList, index: number, key: AttachmentField, value: Typed | string): void {
   const item = project[list][index] as unknown as Record<string, unknown>
   if (key === 'label' && value === '') delete item.label
+  else if (OPTIONAL_FIELDS.has(key) && value === undefined) delete item[key]
   else assign(item, key, value)
+}
+
+/** The family a spring acts in; a rotational stiffness belongs to bending alone. */
+export function setSpringMotion(project: Project, index: number, motion: Motion): void {
+  const spring = project.springs[index] as GroundSpring
+  if (motion === 'axial') delete spring.motion
+  else spring.motion = motion
+  if (motion !== 'bending') delete spring.rotationalStiffness
+}
+
+/**
+ * Whether an excitation drives a family. `excites` absent means every analysed family; the
+ * list is kept only while it leaves a family out, so a file stays as plain as it can.
+ */
+export function setExcites(project: Project, index: number, motion: Motion, on: boolean): void {
+  const e = project.excitations[index]
+  const current = e.excites && e.excites.length ? e.excites : [...MOTIONS]
+  const next = MOTIONS.filter((m) => (m === motion ? on : current.includes(m)))
+  if (next.length === 0) return
+  if (next.length === MOTIONS.length) delete e.excites
+  else e.excites = next
+}
+
+/** The families an excitation drives, as its checkboxes show them: every one when `excites` is absent. */
+export function excitesOf(e: Pick<Excitation, 'excites'>): Motion[] {
+  return e.excites && e.excites.length ? [...e.excites] : [...MOTIONS]
 }
 
 export function removeAttachment(project: Project, list: AttachmentList, index: number): void {

@@ -8,7 +8,8 @@
 import { defineStore } from 'pinia'
 import { computed, ref, watch } from 'vue'
 import { totalLength } from '../../core/model/geometry'
-import type { Project } from '../../core/model/project'
+import type { Motion, Project } from '../../core/model/project'
+import { analysedFamilies, type FamilyKey } from '../../core/model/families'
 import { useSolver } from '../solver/solver-client'
 import type { FrequencyAxis, ResponseResult, ResponseTaskRequest } from '../solver/design-tasks'
 import { partKey } from '../solver/part-key'
@@ -25,11 +26,18 @@ const RESPONSE_DEBOUNCE_MS = 200
 
 export type ResponseField = 'forceAt' | 'responseAt' | 'fromHz' | 'toHz' | 'points'
 
-/** Where a point load and read-out go by default: the free end, or mid-span when both ends are fixed. */
-export function defaultResponsePoint(project: Pick<Project, 'segments' | 'ends'>): number {
+/**
+ * Where a point load and read-out go by default, for a family (axial by default): an end free to
+ * move in that family (free; for bending also guided), or mid-span when both ends are held.
+ */
+export function defaultResponsePoint(project: Pick<Project, 'segments' | 'ends'>, motion: Motion = 'axial'): number {
   const length = totalLength(project.segments)
-  if (project.ends.end.axial === 'free') return length
-  if (project.ends.start.axial === 'free') return 0
+  const moves = (end: 'start' | 'end') => {
+    const condition = project.ends[end][motion]
+    return condition === 'free' || condition === 'guided'
+  }
+  if (moves('end')) return length
+  if (moves('start')) return 0
   return length / 2
 }
 
@@ -43,14 +51,19 @@ export const useResponseStore = defineStore('response', () => {
   const typed = ref<Record<Exclude<ResponseField, 'points'>, number | undefined | null>>({ forceAt: null, responseAt: null, fromHz: null, toHz: null })
   const points = ref<number | undefined>(DEFAULT_POINTS)
   const axis = ref<FrequencyAxis>('log')
+  /** The family chosen (null: the part's first). */
+  const chosenFamily = ref<FamilyKey | null>(null)
+  const families = computed(() => (project.validProject ? analysedFamilies(project.validProject) : []))
+  const family = computed(() => families.value.find((f) => f.key === chosenFamily.value) ?? families.value[0] ?? null)
   const { value: result, key: resultKey, running, failure, fetch } = useKeyedResult<ResponseResult>()
   let timer: ReturnType<typeof setTimeout> | null = null
 
   const defaults = computed(() => {
     const model = project.validProject
     if (!model) return null
-    const at = defaultResponsePoint(model)
-    const highest = Math.max(0, ...(results.solved?.modes.map((m) => m.frequencyHz) ?? []))
+    const motion = family.value?.motion ?? 'axial'
+    const at = defaultResponsePoint(model, motion)
+    const highest = Math.max(0, ...(results.solved?.modes.filter((m) => m.family === family.value?.key).map((m) => m.frequencyHz) ?? []))
     return { forceAt: at, responseAt: at, fromHz: 0, toHz: highest > 0 ? RANGE_ABOVE_HIGHEST_MODE * highest : undefined }
   })
 
@@ -84,7 +97,7 @@ export const useResponseStore = defineStore('response', () => {
   const request = computed<ResponseTaskRequest | null>(() => {
     const v = values.value
     if (problems.value.size > 0 || !isNumber(v.forceAt) || !isNumber(v.responseAt) || !isNumber(v.fromHz) || !isNumber(v.toHz) || !isNumber(v.points)) return null
-    return { forceAt: v.forceAt, responseAt: v.responseAt, fromHz: v.fromHz, toHz: v.toHz, points: v.points, axis: axis.value }
+    return { ...(family.value ? { family: family.value.key } : {}), forceAt: v.forceAt, responseAt: v.responseAt, fromHz: v.fromHz, toHz: v.toHz, points: v.points, axis: axis.value }
   })
 
   /** Everything the response depends on: the part, the damping, the excitations and the request. */
@@ -104,6 +117,12 @@ export const useResponseStore = defineStore('response', () => {
   function set(field: ResponseField, value: number | undefined): void {
     if (field === 'points') points.value = value
     else typed.value = { ...typed.value, [field]: value }
+  }
+
+  /** Another family: its own default points and range (a torque on a shaft is not a force on a hanger). */
+  function chooseFamily(key: FamilyKey): void {
+    chosenFamily.value = key
+    resetInputs()
   }
 
   function resetInputs(): void {
@@ -129,5 +148,5 @@ export const useResponseStore = defineStore('response', () => {
     { immediate: true },
   )
 
-  return { typed, points, axis, values, problems, result, running, failure, isCurrent, set, resetInputs }
+  return { typed, points, axis, families, family, values, problems, result, running, failure, isCurrent, set, resetInputs, chooseFamily }
 })

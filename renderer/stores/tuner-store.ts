@@ -8,7 +8,7 @@ import { defineStore } from 'pinia'
 import { computed, ref, shallowRef, watch } from 'vue'
 import { designParameters, withParameter, type DesignParameter } from '../../core/analysis/design-parameters'
 import type { TuneRequest, TuneResult } from '../../core/analysis/tuner'
-import type { Project } from '../../core/model/project'
+import type { Motion, Project } from '../../core/model/project'
 import type { QuantityKind } from '../../core/model/units'
 import { useSolver } from '../solver/solver-client'
 import { useCancellableJob } from '../composables/cancellable-job'
@@ -49,6 +49,8 @@ export const useTunerStore = defineStore('tuner', () => {
   const typedMax = ref<number | undefined | null>(null)
   const goal = ref<TuneGoal>('separation')
   const mode = ref(1)
+  /** The family the search looks at ('all': every analysed family's separation; a target mode is then of the first). */
+  const motion = ref<Motion | 'all'>('all')
   const targetHz = ref<number | undefined>(undefined)
   const result = shallowRef<TuneResult | null>(null)
   /** The project (as JSON) the result was found for. */
@@ -130,6 +132,7 @@ export const useTunerStore = defineStore('tuner', () => {
       min,
       max,
       modes: model.analysis.modes,
+      ...(motion.value !== 'all' && model.motions.includes(motion.value) ? { motion: motion.value } : {}),
       ...(goal.value === 'target' ? { mode: mode.value, targetHz: targetHz.value } : {}),
     }
     await runJob(
@@ -168,6 +171,7 @@ export const useTunerStore = defineStore('tuner', () => {
     parameterPath,
     goal,
     mode,
+    motion,
     targetHz,
     result,
     running,

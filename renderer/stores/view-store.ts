@@ -2,7 +2,8 @@
 import { defineStore } from 'pinia'
 import { computed, ref, watch } from 'vue'
 import type { ConvergenceAxis } from '../../core/charts/convergence-chart'
-import type { ModeShapeLower } from '../../core/charts/mode-shape-chart'
+import type { FamilyKey } from '../../core/model/families'
+import type { ShapeLower } from '../charts/family-shape-chart'
 import { useProjectStore } from './project-store'
 
 export type ViewName = 'part' | 'modes' | 'resonance' | 'convergence' | 'design'
@@ -51,15 +52,21 @@ export const useViewStore = defineStore('view', () => {
   })
 
   const selectedSegment = ref<number | null>(null)
-  /** Modes drawn in the mode-shape chart (0-based). */
-  const selectedModes = ref<number[]>([0, 1, 2])
-  const lowerQuantity = ref<ModeShapeLower>('stress')
+  /** Modes ticked for the mode-shape chart (indices into the solved modes); none: the first of the chart's family. */
+  const selectedModes = ref<number[]>([])
+  const lowerQuantity = ref<ShapeLower>('stress')
+  /** The family the modes table shows ('all': every analysed family). */
+  const modesFamily = ref<FamilyKey | 'all'>('all')
+  /** The family of the mode-shape chart and the animation (null: the table's, or that of the first plotted mode). */
+  const shapeFamily = ref<FamilyKey | null>(null)
+  /** The family the convergence study and the mass comparison are run for (null: the first analysed). */
+  const convergenceFamily = ref<FamilyKey | null>(null)
   const convergenceMode = ref<number | null>(null)
   const convergenceAxis = ref<ConvergenceAxis>('elements')
   const conflictsOnly = ref(false)
   const designPanel = ref<DesignPanel>('guide')
-  /** The mode whose sensitivities are listed (null: the first elastic one). */
-  const sensitivityMode = ref<number | null>(null)
+  /** The mode whose sensitivities are listed, by its key ("bending 1"; null: the first elastic one). */
+  const sensitivityMode = ref<string | null>(null)
   const warningsOpen = ref(false)
   const cautionsOpen = ref(false)
   // The warnings panel belongs to the moment it was opened: another view or another document closes it.
@@ -88,6 +95,9 @@ export const useViewStore = defineStore('view', () => {
     selectedSegment,
     selectedModes,
     lowerQuantity,
+    modesFamily,
+    shapeFamily,
+    convergenceFamily,
     convergenceMode,
     convergenceAxis,
     conflictsOnly,

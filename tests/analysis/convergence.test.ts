@@ -8,7 +8,8 @@
 import { describe, expect, test } from 'vitest'
 import { convergenceStudy } from '../../core/analysis/convergence'
 import { analyseProject } from '../../core/analysis/modal-analysis'
-import { uniformBar } from '../helpers'
+import { readProjectDocument } from '../../core/model/project-schema'
+import { STEEL, uniformBar } from '../helpers'
 
 describe('observed orders on a uniform fixed–free bar', () => {
   const project = uniformBar({ length: 1 })
@@ -59,5 +60,41 @@ describe('consistent-mass 2-node frequencies are upper bounds (Rayleigh–Ritz)'
       const a = analyseProject(project, { elementOrder: 1, elementsPerSegment: N, mass: 'consistent', modes: 6 })
       for (const m of a.modes) expect(m.frequencyHz, `N = ${N}, mode ${m.mode}`).toBeGreaterThanOrEqual((m.referenceHz as number) * (1 - 1e-13))
     }
+  })
+})
+
+/**
+ * Hermite cubic beam elements: the frequency error of consistent mass falls as O(h⁴), of lumped
+ * (and so mixed) mass as O(h²) (G. Strang and G. Fix, An Analysis of the Finite Element Method,
+ * §6.3, eigenvalue error O(h^{2(k+1−m)}) with k = 3, m = 2; lumped from memory). On fine meshes the
+ * stiffness (∝ 1/h³) makes round-off grow as the mesh refines, bending the error curve back up;
+ * the observed order must come from the meshes before that, never from the upturn.
+ */
+describe('observed orders of a uniform pinned–pinned beam in three segments, up to 1024 elements per segment', () => {
+  const read = readProjectDocument({
+    format: 'rodwave',
+    version: 2,
+    motions: ['bending'],
+    materials: [{ ...STEEL, poissonRatio: 0.3 }],
+    // One section throughout; three segments so the finest mesh has 3072 elements, well into round-off.
+    segments: [0.42, 0.16, 0.42].map((length) => ({ length, material: 'steel', section: { shape: 'solid', diameter: 0.024 } })),
+    ends: { start: { bending: 'pinned' }, end: { bending: 'pinned' } },
+  })
+  if (!read.ok) throw new Error(read.issues.map((i) => `${i.path}: ${i.message}`).join('\n'))
+  const study = convergenceStudy(read.project, { modes: 2, family: 'bending' })
+  test.each([
+    ['consistent', 4],
+    ['lumped', 2],
+    ['mixed', 2],
+  ] as const)('%s mass: order %i ± 0.2 for modes 1 and 2', (mass, expectedOrder) => {
+    const s = study.series.find((x) => x.mass === mass)!
+    s.observedOrder.forEach((p, m) => {
+      expect(p, `mode ${m + 1}`).not.toBeNull()
+      expect(Math.abs((p as number) - expectedOrder), `mode ${m + 1}: observed order ${p}, expected ${expectedOrder} ± 0.2`).toBeLessThanOrEqual(0.2)
+    })
+  })
+  test('the finest meshes really are past the round-off upturn (the case the rule is for)', () => {
+    const errors = study.series.find((x) => x.mass === 'consistent')!.points.map((p) => Math.abs(p.errors[0] as number))
+    expect(errors[errors.length - 1], 'finest error against the smallest').toBeGreaterThan(10 * Math.min(...errors))
   })
 })

@@ -102,6 +102,56 @@ describe('bar drawing', () => {
   })
 })
 
+describe('bar drawing of every family', () => {
+  const texts = (d: ReturnType<typeof barDrawing>) => d.shapes.flatMap((s) => (s.kind === 'text' ? [s.text] : []))
+  const hanger: Bar & Pick<Project, 'motions'> = {
+    ...STEPPED,
+    motions: ['axial', 'bending'],
+    ends: { start: partEnd('fixed', 'fixed', 'pinned'), end: partEnd('free', 'fixed', 'clamped') },
+    springs: [
+      { at: 1, motion: 'torsion', stiffness: 2500, label: 'coupling' },
+      { at: 1.4, motion: 'bending', stiffness: 0, rotationalStiffness: 300, label: 'bracket' },
+    ],
+  }
+  const drawing = barDrawing(hanger, { width: 1000, height: 300 })
+  const x = (at: number) => drawing.layout.originX + at * drawing.layout.axialScale
+
+  it('draws each end’s bending support where bending is analysed: a pin under the start, jaws at the end', () => {
+    const pins = drawing.shapes.filter((s) => s.role === 'pin')
+    expect(new Set(pins.map((s) => s.end))).toEqual(new Set(['start']))
+    const clamps = drawing.shapes.filter((s) => s.role === 'clamp')
+    expect(clamps).toHaveLength(2)
+    expect(clamps.every((s) => s.end === 'end' && s.kind === 'rect' && Math.abs(s.x + s.width - x(2.2)) < 1e-9)).toBe(true)
+    // A wall only where axial motion (analysed) is held: the start; torsion is not analysed here.
+    const walls = drawing.shapes.filter((s): s is Extract<DrawingShape, { kind: 'line' }> => s.kind === 'line' && s.role === 'support')
+    expect(walls.map((w) => w.x1)).toEqual([expect.closeTo(x(0), 9)])
+    // The wall stops at the bar's lower edge, so the pin below it reads.
+    expect(walls[0].y2).toBeCloseTo(drawing.layout.axisY + (0.03 * drawing.layout.radialScale) / 2, 9)
+  })
+
+  it('says each end’s conditions in words, and names a spring’s family with its unit', () => {
+    expect(texts(drawing)).toContain('Start: axial fixed · pinned')
+    expect(texts(drawing)).toContain('End: axial free · clamped')
+    expect(texts(drawing)).toContain('coupling, 2500 N·m/rad torsion')
+    expect(texts(drawing)).toContain('bracket, 300 N·m/rad rotational')
+    // A torsion spring rings the bar; a rotational bending spring has its spiral.
+    expect(drawing.shapes.filter((s) => s.role === 'spring' && s.motion === 'torsion')).toHaveLength(2)
+    expect(drawing.shapes.filter((s) => s.role === 'spring' && s.motion === 'bending')).toHaveLength(2)
+  })
+
+  it('draws a version 1 part (axial motion only) as before: no bending supports, no words at the ends', () => {
+    const axial = barDrawing(STEPPED, { width: 1000, height: 260 })
+    expect(axial.shapes.some((s) => s.role === 'pin' || s.role === 'clamp' || s.role === 'guide' || s.role === 'end-note')).toBe(false)
+    expect(barDrawing({ ...STEPPED, motions: ['axial'] }, { width: 1000, height: 260 }).shapes).toEqual(axial.shapes)
+  })
+
+  it('draws a guided end as a sleeve on rollers', () => {
+    const guided = barDrawing({ ...hanger, ends: { start: partEnd('fixed', 'fixed', 'guided'), end: partEnd('free', 'free', 'free') } }, { width: 1000, height: 300 })
+    expect(guided.shapes.filter((s) => s.role === 'guide' && s.end === 'start').length).toBeGreaterThanOrEqual(4)
+    expect(guided.shapes.some((s) => s.end === 'end' && s.role !== 'end-note')).toBe(false)
+  })
+})
+
 describe('label rows', () => {
   it('puts overlapping labels on the next free row, and none where all rows are taken', () => {
     expect(placeInRows([{ centre: 10, width: 10 }, { centre: 14, width: 10 }, { centre: 30, width: 10 }, { centre: 16, width: 10 }], 2)).toEqual([0, 1, 0, -1])

@@ -72,6 +72,14 @@ describe('forced response at the excitation bands', () => {
     expect(around.amplification!).toBeGreaterThan(100)
   })
 
+  it('takes the excitations of the project it is given, though the solved part is kept between calls: tan(kL)/(kL) at kL = π/8 (1e-4)', () => {
+    // The same part as above (so the worker's kept solve is reused), another excitation.
+    const quarter = { ...bar, excitations: [{ label: 'a quarter of the first mode', hz: F1 / 4 }] }
+    const bands = responseTask(quarter, { forceAt: L, responseAt: L, fromHz: 0, toHz: 3 * F1, points: 50, axis: 'linear' }).bands
+    expect(bands.map((b) => b.band.label)).toEqual(['a quarter of the first mode'])
+    expectRelative(bands[0].amplification!, Math.tan(Math.PI / 8) / (Math.PI / 8), 1e-4, 'amplification')
+  })
+
   it('samples the range evenly plus each mode and its half-power points', () => {
     const grid = responseGrid({ fromHz: 0, toHz: 1000, points: 11, axis: 'linear' }, [250], 0.02)
     expect(grid).toEqual([0, 100, 200, 245, 250, 255, 300, 400, 500, 600, 700, 800, 900, 1000])

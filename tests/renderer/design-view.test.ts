@@ -49,7 +49,9 @@ describe('design view', () => {
     const parameters = designParameters(project)
     const rows = wrapper.findAll('[data-testid^="sensitivity-row-"]')
     expect(rows.map((r) => r.attributes('data-parameter'))).toEqual(expected.map((s) => s.parameter))
-    expect(rows[0].text()).toContain(sensitivitySentence(expected[0], parameters.find((p) => p.path === expected[0].parameter)!, 'SI'))
+    // The view's sensitivities carry their family: the sentence names it ("raises axial mode 1").
+    expect(rows[0].text()).toContain(sensitivitySentence({ ...expected[0], motion: 'axial' } as typeof expected[0], parameters.find((p) => p.path === expected[0].parameter)!, 'SI'))
+    expect(rows[0].text()).toContain('raises axial mode 1')
     expect(wrapper.get('[data-testid="design-basis"]').text()).toContain('exact frequencies')
   })
 
