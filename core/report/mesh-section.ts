@@ -140,7 +140,7 @@ function referenceParagraph(study: ConvergenceStudy): string {
     .map((f, i) => `f<sub>${i + 1}</sub> = ${formatFrequency(f)} Hz`)
     .join(', ')
   const order =
-    'The observed order p = log(e<sub>coarse</sub>/e<sub>fine</sub>) / log(h<sub>coarse</sub>/h<sub>fine</sub>) is taken from the finest pair of meshes whose errors stand above round-off (10<sup>−12</sup>).'
+    'The observed order p = log(e<sub>coarse</sub>/e<sub>fine</sub>) / log(h<sub>coarse</sub>/h<sub>fine</sub>) is taken from the finest pair of meshes whose order agrees with the next coarser pair’s (within 0.2), so that round-off on the finest meshes, where the error grows again, is not read as an order; where no two pairs agree, from the finest pair whose errors stand above round-off (10<sup>−12</sup>).'
   if (study.referenceMethod === 'exact') {
     return `<p>${meshRangeText(study)} Errors are (f − f<sub>exact</sub>) / f<sub>exact</sub> against the exact solution of the same ${study.family.motion === 'axial' ? 'bar' : 'part'}: ${frequencies}. ${order} Appendix A lists every error.</p>`
   }
