@@ -179,7 +179,7 @@ export async function runBendingBench(say: (line?: string) => void, options: { q
       const rodwaveError = maxError(rodwave.frequenciesHz)
       const peerError = peer?.errors ? Math.max(...peer.errors) : null
       say(
-        `${elements.toLocaleString('en-US').padStart(10)}${(2 * elements).toLocaleString('en-US').padStart(11)}${fmt(rodwave.medianMs).padStart(11)}${(peerMs !== null ? fmt(peerMs) : '—').padStart(13)}${(ratio !== null ? `${ratio.toFixed(1)}×` : '—').padStart(8)}${rodwaveError.toExponential(1).padStart(28)}${(peerError !== null ? peerError.toExponential(1) : '—').padStart(10)}`,
+        `${elements.toLocaleString('en-US').padStart(10)}${(2 * elements).toLocaleString('en-US').padStart(11)}${fmt(rodwave.medianMs).padStart(11)}${(peerMs !== null ? fmt(peerMs) : '—').padStart(13)}${(ratio !== null ? `${ratio.toPrecision(2)}×` : '—').padStart(8)}${rodwaveError.toExponential(1).padStart(28)}${(peerError !== null ? peerError.toExponential(1) : '—').padStart(10)}`,
       )
       if (peer?.failure) say(`    SciPy at ${elements.toLocaleString('en-US')} elements: ${peer.failure}`)
       rows.push({ elements, unknowns: 2 * elements, rodwave: { ...rodwave, maxError: rodwaveError }, scipy: peer, speedup: ratio })
