@@ -10,7 +10,8 @@
  * are whole processes, start to exit: the built command line (`node bin/launch.mjs solve …`)
  * against `python3 bench/peer_scipy.py …` (Python's start and the NumPy/SciPy import included).
  * With /usr/bin/python3 and SciPy present, the peer runs in the same session and the ratio is
- * printed. Options: --quick (smaller sizes, fewer runs), --cold (only the whole-process figures).
+ * printed. Options: --quick (smaller sizes, fewer runs), --cold (only the whole-process figures),
+ * --bending (only the bending rows, bench/bending-bench.ts), --million (bending at 10⁶ elements too).
  */
 import { execFileSync, spawnSync } from 'node:child_process'
 import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs'
@@ -21,11 +22,14 @@ import { analyseProject, type AnalysisOverrides } from '../core/analysis/modal-a
 import { readProjectText } from '../core/model/project-schema'
 import type { Project } from '../core/model/project'
 import { ScatterPool } from '../bin/parallel-scatter'
+import { runBendingBench } from './bending-bench'
 
 const here = dirname(fileURLToPath(import.meta.url))
 const root = resolve(here, '..')
 const quick = process.argv.includes('--quick')
 const coldOnly = process.argv.includes('--cold')
+const bendingOnly = process.argv.includes('--bending')
+const million = process.argv.includes('--million')
 const modelFile = join(here, 'uniform-steel-bar.rodwave.json')
 const read = readProjectText(readFileSync(modelFile, 'utf8'))
 if (!read.ok) throw new Error('the benchmark model is invalid')
@@ -166,7 +170,7 @@ say(`machine: ${cpus().length} × ${cpus()[0]?.model}, Node ${process.version}${
 
 const peer = peerScript()
 
-if (!coldOnly) {
+if (!coldOnly && !bendingOnly) {
   // 1. Headline: 20 modes, 2-node consistent, against SciPy in the same session.
   const headlineSizes = quick ? [100_000] : [100_000, 1_000_000]
   const headline: unknown[] = []
@@ -282,7 +286,7 @@ if (!coldOnly) {
 }
 
 // 6. Whole processes, cold: what a user waits for at the command line.
-{
+if (!bendingOnly) {
   // Build the command line first if needed (not timed).
   coldRodwave(['--help'])
   const runs = quick ? 5 : 11
@@ -329,9 +333,12 @@ if (!coldOnly) {
   say(`load average when this section ended: ${loadavg().map((l) => l.toFixed(1)).join(', ')}`)
 }
 
+// 7. Bending: the interactive size, and SciPy's eigsh on the same pencil.
+if (!coldOnly) results.bending = await runBendingBench(say, { quick, million })
+
 mkdirSync(join(here, 'results'), { recursive: true })
 // Date and time in the name: a second run on the same day keeps the first.
 const stamp = new Date().toISOString().slice(0, 16).replace('T', '-').replace(':', '')
-const file = join(here, 'results', `bench-${stamp}${quick ? '-quick' : ''}${coldOnly ? '-cold' : ''}.json`)
+const file = join(here, 'results', `bench-${stamp}${quick ? '-quick' : ''}${coldOnly ? '-cold' : ''}${bendingOnly ? '-bending' : ''}.json`)
 writeFileSync(file, `${JSON.stringify(results, null, 2)}\n`)
 say(`\nwritten: ${file.slice(root.length + 1)}`)

@@ -1,3 +1,9 @@
+import { effectiveSettings, withMotions, type AnalysisOverrides } from '../core/analysis/modal-analysis'
+import { bandName, type ResonancePair } from '../core/analysis/resonance'
+import { analysedFamilies, familyName, type Family, type FamilyKey } from '../core/model/families'
+import { LIMITS, type Motion, type Project } from '../core/model/project'
+import { estimateDegreesOfFreedom } from '../core/model/project-schema'
+
 /**
  * What every command of the command line shares: the IO it writes through, its options, the
  * exit codes, the usage errors, the caution line and how a message echoes what the user typed.
@@ -51,6 +57,9 @@ export const OPTIONS = {
   order: { type: 'string' },
   'elements-per-segment': { type: 'string' },
   modes: { type: 'string' },
+  motions: { type: 'string' },
+  'bending-theory': { type: 'string' },
+  motion: { type: 'string' },
   'fail-on-conflict': { type: 'boolean' },
   out: { type: 'string' },
   parameter: { type: 'string' },
@@ -91,3 +100,67 @@ export function numberOption(values: CliValues, name: keyof CliValues): number |
   if (typeof raw !== 'string' || raw.trim() === '' || !Number.isFinite(v)) throw new UsageError(`--${name} must be a number (got "${echo(String(raw))}")`)
   return v
 }
+
+/** What `--motion` may name: a motion, or one bending plane of a two-plane section. */
+const FAMILY_NAMES: readonly FamilyKey[] = ['axial', 'torsion', 'bending', 'bending-weak', 'bending-strong']
+
+/** The families `--motion` chooses among the project's analysed ones (all of them without it). */
+export interface ChosenFamilies {
+  /** The motions of the chosen families. */
+  readonly motions: Motion[]
+  readonly families: Family[]
+  /** Whether --motion was given. */
+  readonly given: boolean
+}
+
+/**
+ * `--motion NAME`: a family the project analyses. "bending" means both planes of a two-plane
+ * section; "bending-weak" and "bending-strong" one of them.
+ */
+export function chosenFamilies(project: Project, values: CliValues): ChosenFamilies {
+  const all = analysedFamilies(project)
+  const raw = values.motion
+  if (raw === undefined) return { motions: [...new Set(all.map((f) => f.motion))], families: all, given: false }
+  if (!FAMILY_NAMES.includes(raw as FamilyKey)) {
+    throw new UsageError(`--motion must be axial, torsion or bending (bending-weak or bending-strong for one plane of a two-plane section); got "${echo(raw)}"`)
+  }
+  const families = all.filter((f) => f.key === raw || f.motion === raw)
+  if (families.length === 0) {
+    const motion = raw.startsWith('bending') ? 'bending' : raw
+    if (project.motions.includes(motion as Motion)) throw new UsageError(`--motion ${raw}: the section bends in one plane; use --motion bending`)
+    throw new UsageError(`--motion ${raw}: the project does not analyse ${motion} (it analyses ${project.motions.join(', ')}); add it with --motions`)
+  }
+  return { motions: [families[0].motion], families, given: true }
+}
+
+/** A family in words with a capital: "Axial", "Bending (weak plane)". */
+export function familyTitle(family: Pick<Family, 'motion' | 'plane'>): string {
+  const name = familyName(family)
+  return name.charAt(0).toUpperCase() + name.slice(1)
+}
+
+/** The project as the flags leave it (analysis settings and motions); refuses a mesh beyond the solver's limit. */
+export function projectWithOverrides(project: Project, overrides: AnalysisOverrides): Project {
+  const settings = effectiveSettings(project, overrides)
+  const adjusted = { ...withMotions(project, overrides), analysis: settings }
+  const dofs = estimateDegreesOfFreedom(adjusted)
+  if (dofs > LIMITS.maxDegreesOfFreedom) {
+    throw new UsageError(`--elements-per-segment gives about ${dofs.toExponential(2)} unknowns; Rodwave solves at most ${LIMITS.maxDegreesOfFreedom.toLocaleString('en-US')}`)
+  }
+  return adjusted
+}
+
+/** --motion picks one family for the design commands; solve and report analyse every family of --motions. */
+export function refuseMotion(command: string, values: CliValues): void {
+  if (values.motion !== undefined) throw new UsageError(`${command} analyses every family of the file's motions; choose them with --motions (--motion is for sensitivity, tune, scatter, response and converge)`)
+}
+
+/** One line per conflicting pair, naming the family of the mode: "torsion mode 2 (905.3 Hz) and Gear mesh ×1 (900 Hz): separation 0.6 %". */
+export function conflictLines(conflicts: readonly ResonancePair[]): string[] {
+  return conflicts.map((p) => {
+    const [lo, hi] = p.band.hz
+    const band = lo === hi ? `${lo.toPrecision(6)} Hz` : `${lo.toPrecision(6)}–${hi.toPrecision(6)} Hz`
+    return `rodwave: conflict: ${familyName(p)} mode ${p.mode} (${p.frequencyHz.toPrecision(6)} Hz) and ${echo(bandName(p.band))} (${band}): separation ${(100 * p.separation).toFixed(1)} %\n`
+  })
+}
+

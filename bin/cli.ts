@@ -6,11 +6,10 @@
  */
 import { parseArgs } from 'node:util'
 import { nowMs } from '../core/clock'
-import { readProjectText, formatProjectIssues } from '../core/model/project-schema'
-import type { AnalysisOverrides } from '../core/analysis/modal-analysis'
-import type { Project } from '../core/model/project'
+import { readProjectDocument, readProjectText, formatProjectIssues } from '../core/model/project-schema'
+import { AnalysisInputError, type AnalysisOverrides } from '../core/analysis/modal-analysis'
+import { MOTIONS, type BendingTheory, type Motion, type Project } from '../core/model/project'
 import { COMMANDS, type CommandContext, type InputTiming } from './commands'
-import { AnalysisInputError } from '../core/analysis/modal-analysis'
 import { CAUTION, capEchoes, echo, echoPath, EXIT, integerOption, OPTIONS, OutOfReachError, UsageError, type CliIo, type CliValues } from './cli-common'
 
 export { CAUTION, ECHO_LIMIT, echo, echoPath, EXIT, integerOption, numberOption, OutOfReachError, UsageError, type CliIo, type CliValues } from './cli-common'
@@ -28,8 +27,13 @@ Options (override the file's analysis):
   --mass consistent|lumped|mixed
   --order 1|2                  element order (2-node or 3-node elements)
   --elements-per-segment N
-  --modes N
+  --modes N                    modes per family (per bending plane)
+  --motions LIST               the motion families analysed, comma-separated: axial,torsion,bending
+                               (overrides the file's "motions")
+  --bending-theory euler-bernoulli|timoshenko
   --fail-on-conflict           exit 3 when any mode conflicts with an excitation
+  --motion FAMILY              one family for sensitivity, tune, scatter, response and converge:
+                               axial, torsion, bending (bending-weak, bending-strong on a two-plane section)
 Run "rodwave <command> --help" for a command's own options.
 Exit codes: 0 done, 1 invalid input, 2 wrong usage, 3 a conflict (--fail-on-conflict), 4 the target is out of reach (tune).
 
@@ -47,7 +51,46 @@ function overridesFrom(values: CliValues): AnalysisOverrides {
   if (eps !== undefined) overrides.elementsPerSegment = eps
   const modes = integerOption(values, 'modes', 1, 200)
   if (modes !== undefined) overrides.modes = modes
+  if (values.motions !== undefined) overrides.motions = motionsOption(values.motions)
+  const theory = values['bending-theory']
+  if (theory !== undefined) {
+    if (!BENDING_THEORIES.includes(theory as BendingTheory)) throw new UsageError(`--bending-theory must be euler-bernoulli or timoshenko (got "${echo(theory)}")`)
+    overrides.bendingTheory = theory as BendingTheory
+  }
   return overrides
+}
+
+const BENDING_THEORIES: readonly BendingTheory[] = ['euler-bernoulli', 'timoshenko']
+
+/** `--motions axial,torsion`: known names, at least one, each once, in the order Rodwave reports them. */
+function motionsOption(raw: string): Motion[] {
+  const names = raw.split(',').map((name) => name.trim())
+  const unknown = names.filter((name) => !MOTIONS.includes(name as Motion))
+  if (unknown.length > 0 || names.length === 0) {
+    const shown = unknown.map((name) => `"${echo(name)}"`).join(', ') || `"${echo(raw)}"`
+    throw new UsageError(`--motions takes axial, torsion and bending, comma-separated (got ${shown})`)
+  }
+  return MOTIONS.filter((m) => names.includes(m))
+}
+
+/**
+ * The project with --motions and --bending-theory applied, checked again as a file would be: a
+ * family the file did not analyse may need data it does not give (a shear modulus for torsion,
+ * a second moment for bending).
+ */
+function withFamilyOverrides(project: Project, overrides: AnalysisOverrides): ReturnType<typeof readProjectDocument> {
+  if (!overrides.motions && !overrides.bendingTheory) return { ok: true, project }
+  return readProjectDocument({
+    ...project,
+    ...(overrides.motions ? { motions: overrides.motions } : {}),
+    analysis: { ...project.analysis, ...(overrides.bendingTheory ? { bendingTheory: overrides.bendingTheory } : {}) },
+  })
+}
+
+function familyOptionsText(values: CliValues): string {
+  return [values.motions !== undefined ? `--motions ${echo(values.motions)}` : '', values['bending-theory'] !== undefined ? `--bending-theory ${echo(values['bending-theory'])}` : '']
+    .filter(Boolean)
+    .join(' ')
 }
 
 /** Where the time before the command went, when the command line runs as a process. */
@@ -111,7 +154,12 @@ export async function runCli(argv: readonly string[], io: CliIo, options: RunOpt
     io.stderr(`rodwave: ${echoPath(file)} is not a valid Rodwave project:\n${formatProjectIssues(read.issues)}\n`)
     return EXIT.invalidInput
   }
-  const project: Project = read.project
+  const overridden = withFamilyOverrides(read.project, overrides)
+  if (!overridden.ok) {
+    io.stderr(`rodwave: with ${familyOptionsText(values)}, ${echoPath(file)} is not a valid Rodwave project:\n${formatProjectIssues(overridden.issues)}\n`)
+    return EXIT.invalidInput
+  }
+  const project: Project = overridden.project
   const timing: InputTiming = { startedAt, ...options, readMs: validateStart - readStart, validateMs: nowMs() - validateStart }
   const context: CommandContext = { project, file, values, overrides, io, timing }
   try {

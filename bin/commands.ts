@@ -1,12 +1,12 @@
 /** The command-line commands: each turns a validated project into output and an exit code. */
-import { analyseProject, effectiveSettings, type AnalysisOverrides } from '../core/analysis/modal-analysis'
+import { analyseProject, effectiveSettings, withMotions, type AnalysisOverrides } from '../core/analysis/modal-analysis'
+import { familyName } from '../core/model/families'
 import { convergenceStudy, type ConvergenceStudy } from '../core/analysis/convergence'
 import { modalSummaryCsv, solveDocument } from '../core/analysis/modal-summary'
-import { estimateDegreesOfFreedom } from '../core/model/project-schema'
-import { LIMITS, type ElementOrder, type MassMatrixKind, type Project } from '../core/model/project'
+import type { ElementOrder, MassMatrixKind, Project } from '../core/model/project'
 import { nowMs } from '../core/clock'
 import type { CliIo, CliValues } from './cli-common'
-import { CAUTION, UsageError } from './cli-common'
+import { CAUTION, chosenFamilies, conflictLines, projectWithOverrides, refuseMotion, UsageError } from './cli-common'
 import { DESIGN_COMMANDS } from './design-commands'
 
 /** What happened before the command ran, for `solve`'s timing. */
@@ -35,22 +35,18 @@ export interface Command {
   run(context: CommandContext): Promise<number>
 }
 
-/** The project as the flags leave it; refuses a mesh beyond the solver's limit. */
-function projectWithOverrides(project: Project, overrides: AnalysisOverrides): Project {
-  const settings = effectiveSettings(project, overrides)
-  const adjusted = { ...project, analysis: settings }
-  const dofs = estimateDegreesOfFreedom(adjusted)
-  if (dofs > LIMITS.maxDegreesOfFreedom) {
-    throw new UsageError(`--elements-per-segment gives about ${dofs.toExponential(2)} unknowns; Rodwave solves at most ${LIMITS.maxDegreesOfFreedom.toLocaleString('en-US')}`)
-  }
-  return adjusted
-}
-
 const solve: Command = {
-  summary: 'modes, reference comparison, effective mass, resonance check',
-  usage: '[--json | --csv] [--mass K] [--order 1|2] [--elements-per-segment N] [--modes N] [--fail-on-conflict]',
+  summary: 'modes of every analysed family, reference comparison, effective mass, resonance check',
+  usage: '[--json | --csv] [--motions LIST] [--bending-theory T] [--mass K] [--order 1|2] [--elements-per-segment N] [--modes N] [--fail-on-conflict]',
+  help: [
+    'Modes are numbered within their family (axial, torsion, bending; a two-plane section bends as bending-weak and bending-strong).',
+    'JSON: each mode and each resonance pair carries its motion and plane; reference.families and reference.methods give every',
+    "family's reference (exact, or extrapolated: a Richardson estimate from two fine meshes). CSV: a motion column after mode.",
+    'With --fail-on-conflict every conflicting pair is named on stderr with its family.',
+  ].join('\n'),
   async run({ project, values, overrides, io, timing }) {
     if (values.json && values.csv) throw new UsageError('choose one of --json and --csv')
+    refuseMotion('solve', values)
     const analyseStart = nowMs()
     const analysis = analyseProject(projectWithOverrides(project, overrides), overrides)
     const document = solveDocument(analysis, {
@@ -62,6 +58,7 @@ const solve: Command = {
     for (const warning of document.warnings) io.stderr(`rodwave: warning: ${warning.message}\n`)
     const conflicts = analysis.resonance.filter((p) => p.status === 'conflict')
     if (values['fail-on-conflict'] && conflicts.length > 0) {
+      for (const line of conflictLines(conflicts)) io.stderr(line)
       io.stderr(`rodwave: ${conflicts.length} mode–excitation pair(s) inside the ${(100 * project.margin).toFixed(1)} % margin\n`)
       return 3
     }
@@ -71,11 +68,16 @@ const solve: Command = {
 
 const converge: Command = {
   summary: 'frequencies against mesh density for each mass matrix and element order, with errors and observed orders',
-  usage: '[--json | --csv] [--mass K] [--order 1|2] [--modes N]',
-  async run({ project, values, overrides, io }) {
+  usage: '[--json | --csv] [--motion FAMILY] [--motions LIST] [--bending-theory T] [--mass K] [--order 1|2] [--modes N]',
+  help: 'The study covers one family: --motion (default: the first analysed, axial where analysed). Bending has one element kind, so --order does not apply to it.',
+  async run({ project: fileProject, values, overrides, io }) {
     if (values.json && values.csv) throw new UsageError('choose one of --json and --csv')
     if (values['elements-per-segment'] !== undefined) throw new UsageError('converge runs its own mesh densities; --elements-per-segment does not apply')
+    const project = { ...withMotions(fileProject, overrides), analysis: effectiveSettings(fileProject, overrides) }
+    const chosen = chosenFamilies(project, values)
+    if (chosen.given && chosen.families.length > 1) throw new UsageError(`--motion ${values.motion}: the section bends in two planes; converge studies one, so use --motion bending-weak or bending-strong`)
     const study = convergenceStudy(project, {
+      family: chosen.families[0].key,
       modes: overrides.modes ?? project.analysis.modes,
       ...(overrides.elementOrder ? { orders: [overrides.elementOrder] } : {}),
       ...(overrides.mass ? { masses: [overrides.mass] } : {}),
@@ -90,7 +92,7 @@ const converge: Command = {
 // The report and its chart renderer (ECharts) are loaded only when a report is asked for.
 const report: Command = {
   summary: 'the modal summary report: one self-contained HTML file, or PDF where a browser engine is available',
-  usage: '--out PATH.html|PATH.pdf [--mass K] [--order 1|2] [--elements-per-segment N] [--modes N] [--fail-on-conflict]',
+  usage: '--out PATH.html|PATH.pdf [--motions LIST] [--bending-theory T] [--mass K] [--order 1|2] [--elements-per-segment N] [--modes N] [--fail-on-conflict]',
   async run(context) {
     const { runReport } = await import('./report-command')
     return runReport(context)
@@ -118,11 +120,14 @@ function convergenceCsv(study: ConvergenceStudy): string {
 
 function convergenceText(project: Project, study: ConvergenceStudy): string {
   const out: string[] = []
-  out.push(`Mesh convergence${project.title ? ` — ${project.title}` : ''}`)
+  out.push(`Mesh convergence of the ${familyName(study.family)} modes${project.title ? ` — ${project.title}` : ''}`)
+  const listed = study.referenceHz.map((f, i) => `f${i + 1} = ${f.toPrecision(10)} Hz`).join(', ')
   out.push(
-    study.referenceMethod
-      ? `Reference (exact): ${study.referenceHz.map((f, i) => `f${i + 1} = ${f.toPrecision(10)} Hz`).join(', ')}`
-      : 'No exact reference: compare with the Richardson estimates.',
+    study.referenceMethod === 'exact'
+      ? `Reference (exact): ${listed}`
+      : study.referenceMethod === 'extrapolated'
+        ? `Reference (no exact solution: a Richardson estimate from two fine meshes): ${listed}`
+        : 'No exact reference: compare with the Richardson estimates.',
   )
   const modes = study.modes
   for (const s of study.series) {

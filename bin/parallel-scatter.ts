@@ -55,13 +55,16 @@ export class ScatterPool {
   }
 
   /**
-   * Frequencies of all samples, row-major samples × modes. The samples go out in chunks, each
-   * worker taking the next when it finishes one, so a worker slowed by anything else on the
-   * machine does not hold the others up at the end.
+   * Frequencies of all samples, row-major: one row per sample, one column per mode of every
+   * analysed family (modes per family × families, as scatterFrequencies lays them out). The
+   * samples go out in chunks, each worker taking the next when it finishes one, so a worker
+   * slowed by anything else on the machine does not hold the others up at the end.
    */
   async run(project: Project, options: { seed: number; samples: number; modes: number }): Promise<Float64Array> {
     const { samples, modes } = options
-    const out = new Float64Array(samples * modes)
+    // The row width is known from the first answer (it counts every family's modes).
+    let out: Float64Array | null = null
+    let width = 0
     const chunk = Math.max(25, Math.ceil(samples / (this.workers.length * 8)))
     let next = 0
     const drain = async (worker: Worker): Promise<void> => {
@@ -70,11 +73,15 @@ export class ScatterPool {
         const count = Math.min(chunk, samples - start)
         next += count
         const part = await this.request(worker, { project, run: { seed: options.seed, start, count, modes } })
-        out.set(part, start * modes)
+        if (!out) {
+          width = part.length / count
+          out = new Float64Array(samples * width)
+        }
+        out.set(part, start * width)
       }
     }
     await Promise.all(this.workers.map(drain))
-    return out
+    return out ?? new Float64Array(0)
   }
 
   private request(worker: Worker, job: { project: Project; run: { seed: number; start: number; count: number; modes: number } }): Promise<Float64Array> {

@@ -12,13 +12,12 @@ import { extname, join } from 'node:path'
 import { pathToFileURL } from 'node:url'
 import { promisify } from 'node:util'
 import { convergenceStudy, type ConvergenceStudy } from '../core/analysis/convergence'
-import { analyseProject, effectiveSettings } from '../core/analysis/modal-analysis'
+import { analyseProject } from '../core/analysis/modal-analysis'
 import { modelWarnings } from '../core/analysis/model-checks'
-import { LIMITS, type Project } from '../core/model/project'
-import { estimateDegreesOfFreedom } from '../core/model/project-schema'
+import type { Project } from '../core/model/project'
 import { modalReportHtml } from '../core/report/modal-report'
 import { writeFileAtomic } from '../electron/atomic-write'
-import { echoPath, UsageError } from './cli-common'
+import { conflictLines, echoPath, projectWithOverrides, refuseMotion, UsageError } from './cli-common'
 import type { CommandContext } from './commands'
 
 /** The convergence study in a report covers at most this many modes (one table column each)… */
@@ -127,14 +126,11 @@ export async function runReport({ project, values, overrides, io }: CommandConte
   const out = values.out
   if (out === undefined || out.trim() === '') throw new UsageError('report needs --out PATH (a .html or .pdf file)')
   if (values.json || values.csv) throw new UsageError('report writes a file; --json and --csv do not apply')
+  refuseMotion('report', values)
   const format = formatOf(out)
 
-  const settings = effectiveSettings(project, overrides)
-  const solved: Project = { ...project, analysis: settings }
-  const dofs = estimateDegreesOfFreedom(solved)
-  if (dofs > LIMITS.maxDegreesOfFreedom) {
-    throw new UsageError(`--elements-per-segment gives about ${dofs.toExponential(2)} unknowns; Rodwave solves at most ${LIMITS.maxDegreesOfFreedom.toLocaleString('en-US')}`)
-  }
+  const solved: Project = projectWithOverrides(project, overrides)
+  const settings = solved.analysis
   const analysis = analyseProject(solved, overrides)
   // One study per family analysed (analysis.project carries the motions the command line chose).
   const convergence: ConvergenceStudy[] = []
@@ -183,6 +179,7 @@ export async function runReport({ project, values, overrides, io }: CommandConte
   for (const warning of modelWarnings(analysis)) io.stderr(`rodwave: warning: ${warning.message}\n`)
   const conflicts = analysis.resonance.filter((p) => p.status === 'conflict')
   if (values['fail-on-conflict'] && conflicts.length > 0) {
+    for (const line of conflictLines(conflicts)) io.stderr(line)
     io.stderr(`rodwave: ${conflicts.length} mode–excitation pair(s) inside the ${(100 * project.margin).toFixed(1)} % margin\n`)
     return 3
   }

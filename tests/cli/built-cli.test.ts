@@ -64,6 +64,37 @@ describe('the built command line', () => {
     expect(timing.totalMs).toBeGreaterThanOrEqual(sum - 1e-9)
   }, 60_000)
 
+  // Version 2 options through the real process: the same document as the sources give (timing
+  // aside), and a wrong family name is a usage error naming the option.
+  test('--motions and --bending-theory give what the sources give; a wrong --motions exits 2', async () => {
+    const file = join(work, 'rod.rodwave.json')
+    await writeFile(
+      file,
+      JSON.stringify({
+        format: 'rodwave',
+        version: 2,
+        motions: ['axial'],
+        materials: [{ id: 'steel', youngsModulus: 2e11, density: 7850, poissonRatio: 0.3 }],
+        segments: [{ length: 0.4, material: 'steel', section: { shape: 'solid', diameter: 0.05 } }],
+        ends: { start: { axial: 'fixed', torsion: 'fixed', bending: 'clamped' }, end: { axial: 'free', torsion: 'free', bending: 'free' } },
+        analysis: { elementsPerSegment: 40, modes: 3 },
+        excitations: [{ label: 'Gear mesh', hz: 2000, excites: ['torsion'] }],
+      }),
+    )
+    const args = ['solve', file, '--motions', 'torsion,bending', '--bending-theory', 'timoshenko']
+    const built = await rodwave(args)
+    expect(built.code, built.stderr).toBe(EXIT.done)
+    const { timing: _builtTiming, ...fromBuilt } = JSON.parse(built.stdout)
+    const { timing: _sourceTiming, ...fromSources } = JSON.parse((await run(args)).stdout)
+    expect(fromBuilt).toEqual(fromSources)
+    expect(fromBuilt.motions).toEqual(['torsion', 'bending'])
+    expect(fromBuilt.analysis.bendingTheory).toBe('timoshenko')
+    for (const pair of fromBuilt.resonance) expect(pair.motion).toBe('torsion')
+    const wrong = await rodwave(['solve', file, '--motions', 'axial,bend'])
+    expect(wrong.code).toBe(EXIT.usage)
+    expect(wrong.stderr).toContain('--motions takes axial, torsion and bending, comma-separated (got "bend")')
+  }, 60_000)
+
   test('invalid input: exit 1, message on stderr, no stack trace', async () => {
     const built = await rodwave(['solve', 'package.json'])
     expect(built.code).toBe(EXIT.invalidInput)

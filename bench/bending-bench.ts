@@ -1,0 +1,199 @@
+/**
+ * Bending rows of `npm run bench` (also runnable alone: `npx tsx bench/bending-bench.ts [--quick]
+ * [--million]`). Prints measured figures; asserts nothing about time.
+ *
+ * Model: a uniform clamped–free steel beam, Euler–Bernoulli theory, consistent mass, L = 1 m,
+ * solid d = 20 mm (E = 200 GPa, ρ = 7850 kg/m³). Its closed form: f_n = (β_nL)²/(2πL²)·√(EI/(ρA)),
+ * β_nL the roots of cos x cosh x = −1 (R. D. Blevins, Formulas for Natural Frequency and Mode
+ * Shape, table 8-1), found here by bisection.
+ *
+ * a. Warm solve of a 2,000-node model, 10 modes: assembly + solve, best and median of runs after
+ *    a warm-up, as `solve --json` times them.
+ * b. Rodwave against SciPy's eigsh (shift-invert about 0, which='LM', k = 10) on the same pencil:
+ *    core's assembled K and M are written to a temporary file and bench/peer_scipy_bending.py
+ *    loads and solves them. Both are timed on the solve alone (Rodwave: assembly + solve; SciPy:
+ *    eigsh, its sparse matrices built before the clock starts); both frequencies are compared
+ *    with the closed form. 10⁶ elements only with --million (or from solver-bench without --quick).
+ */
+import { execFileSync } from 'node:child_process'
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs'
+import { tmpdir } from 'node:os'
+import { dirname, join } from 'node:path'
+import { fileURLToPath } from 'node:url'
+import { analyseProject } from '../core/analysis/modal-analysis'
+import { assembleFamily } from '../core/fe/assemble'
+import { familyOf } from '../core/model/families'
+import { readProjectDocument } from '../core/model/project-schema'
+import type { Project } from '../core/model/project'
+import { diagonalEntry, type SymmetricBandMatrix } from '../core/linalg/symmetric-band-matrix'
+
+const here = dirname(fileURLToPath(import.meta.url))
+
+const E = 200e9
+const RHO = 7850
+const LENGTH = 1
+const DIAMETER = 0.02
+const AREA = (Math.PI / 4) * DIAMETER ** 2
+const INERTIA = (Math.PI / 64) * DIAMETER ** 4
+const MODES = 10
+
+function beam(elements: number): Project {
+  const read = readProjectDocument({
+    format: 'rodwave',
+    version: 2,
+    motions: ['bending'],
+    materials: [{ id: 'steel', youngsModulus: E, density: RHO, poissonRatio: 0.3 }],
+    segments: [{ length: LENGTH, material: 'steel', section: { shape: 'solid', diameter: DIAMETER } }],
+    ends: { start: { axial: 'fixed', torsion: 'fixed', bending: 'clamped' }, end: { axial: 'free', torsion: 'free', bending: 'free' } },
+    analysis: { elementsPerSegment: elements, modes: MODES, mass: 'consistent', bendingTheory: 'euler-bernoulli' },
+  })
+  if (!read.ok) throw new Error(`the bending benchmark model is invalid: ${read.issues.map((i) => `${i.path}: ${i.message}`).join('; ')}`)
+  return read.project
+}
+
+/** β_nL of the clamped–free beam: the root of cos x + 1/cosh x in ((n − 1)π, nπ), by bisection to the last bit. */
+function betaL(n: number): number {
+  const g = (x: number) => Math.cos(x) + 1 / Math.cosh(x)
+  let lo = (n - 1) * Math.PI + 1e-9
+  let hi = n * Math.PI
+  const sLo = Math.sign(g(lo))
+  for (let i = 0; i < 200 && hi - lo > 4e-16 * hi; i++) {
+    const mid = 0.5 * (lo + hi)
+    if (Math.sign(g(mid)) === sLo) lo = mid
+    else hi = mid
+  }
+  return 0.5 * (lo + hi)
+}
+
+const betaScale = Math.sqrt((E * INERTIA) / (RHO * AREA))
+const closedHz = Array.from({ length: MODES }, (_, i) => (betaL(i + 1) ** 2 / (2 * Math.PI * LENGTH ** 2)) * betaScale)
+const maxError = (frequencies: readonly number[]) => Math.max(...frequencies.map((f, i) => Math.abs(f - closedHz[i]) / closedHz[i]))
+
+function median(values: number[]): number {
+  const s = [...values].sort((a, b) => a - b)
+  const m = s.length >> 1
+  return s.length % 2 ? s[m] : 0.5 * (s[m - 1] + s[m])
+}
+
+const fmt = (ms: number) => (ms >= 1000 ? `${(ms / 1000).toFixed(2)} s` : `${ms.toFixed(ms < 10 ? 2 : 1)} ms`)
+
+interface Timed {
+  readonly bestMs: number
+  readonly medianMs: number
+  readonly runs: number
+  readonly frequenciesHz: number[]
+  readonly sturmPassed: boolean
+}
+
+function timeBeam(elements: number, warmups: number, runs: number): Timed {
+  const project = beam(elements)
+  for (let i = 0; i < warmups; i++) analyseProject(project, {}, { withReference: false })
+  const times: number[] = []
+  let last = analyseProject(project, {}, { withReference: false })
+  times.push(last.timing.assembleMs + last.timing.solveMs)
+  for (let r = 1; r < runs; r++) {
+    last = analyseProject(project, {}, { withReference: false })
+    times.push(last.timing.assembleMs + last.timing.solveMs)
+  }
+  return { bestMs: Math.min(...times), medianMs: median(times), runs, frequenciesHz: last.modes.map((m) => m.frequencyHz), sturmPassed: last.sturmPassed }
+}
+
+/** python3 with SciPy, or the reason there is none. */
+function findPython(): { python: string } | { missing: string } {
+  for (const python of ['/usr/bin/python3', 'python3']) {
+    try {
+      execFileSync(python, ['-c', 'import scipy.sparse.linalg, scipy.optimize'], { stdio: 'ignore' })
+      return { python }
+    } catch {
+      // try the next
+    }
+  }
+  return { missing: 'python3 with SciPy not found' }
+}
+
+/** K then M: each its diagonal and then its off-diagonals d = 1..b, n entries each. */
+function writePencil(path: string, stiffness: SymmetricBandMatrix, mass: SymmetricBandMatrix): void {
+  const n = stiffness.order
+  const b = stiffness.halfBandwidth
+  const out = new Float64Array(2 * (b + 1) * n)
+  ;[stiffness, mass].forEach((a, which) => {
+    const base = which * (b + 1) * n
+    for (let i = 0; i < n; i++) out[base + i] = diagonalEntry(a, i)
+    for (let d = 1; d <= b; d++) out.set(a.offDiagonals[d - 1], base + d * n)
+  })
+  writeFileSync(path, out)
+}
+
+interface PeerRun {
+  readonly eigsh_s: number
+  readonly build_s: number
+  readonly frequencies_hz?: number[]
+  readonly errors?: number[]
+  readonly failure?: string
+}
+
+export async function runBendingBench(say: (line?: string) => void, options: { quick: boolean; million: boolean }): Promise<Record<string, unknown>> {
+  const results: Record<string, unknown> = {}
+  say(`\n7. Bending: clamped–free Euler–Bernoulli beam (L = 1 m, d = 20 mm, steel), consistent mass, ${MODES} modes`)
+  say(`closed form f1…f${MODES}: ${closedHz.map((f) => f.toPrecision(6)).join(', ')} Hz (β₁L = ${betaL(1).toFixed(6)}, Blevins table 8-1: 1.875104)`)
+
+  // a. The interactive size.
+  const interactive = timeBeam(1999, 20, options.quick ? 20 : 50)
+  say(
+    `7a. 2,000 nodes (1,999 elements, ${2 * 1999} unknowns), ${MODES} modes, assembly + solve, warm: best ${fmt(interactive.bestMs)}, median ${fmt(interactive.medianMs)} of ${interactive.runs} runs; largest error of f1…f${MODES} against the closed form ${maxError(interactive.frequenciesHz).toExponential(1)}; Sturm check ${interactive.sturmPassed ? 'passed' : 'FAILED'}`,
+  )
+  results.interactive = { nodes: 2000, elements: 1999, modes: MODES, ...interactive, maxError: maxError(interactive.frequenciesHz) }
+
+  // b. Against SciPy on the same pencil.
+  const python = findPython()
+  const sizes = options.quick ? [1_000, 10_000] : options.million ? [1_000, 10_000, 100_000, 1_000_000] : [1_000, 10_000, 100_000]
+  say(`7b. Rodwave against SciPy eigsh (shift-invert about 0, which='LM', k = ${MODES}) on the same K and M${'missing' in python ? ` — SciPy peer skipped: ${python.missing}` : ''}`)
+  if (!options.million && !options.quick) say('    (10⁶ elements: run with --million)')
+  say(`${'elements'.padStart(10)}${'unknowns'.padStart(11)}${'Rodwave'.padStart(11)}${'SciPy eigsh'.padStart(13)}${'ratio'.padStart(8)}${'max error f1…f10 (Rodwave)'.padStart(28)}${'(SciPy)'.padStart(10)}`)
+  const rows: unknown[] = []
+  const work = mkdtempSync(join(tmpdir(), 'rodwave-bending-bench-'))
+  try {
+    for (const elements of sizes) {
+      const runs = elements >= 100_000 ? 1 : 7
+      const rodwave = timeBeam(elements, 1, runs)
+      let peer: PeerRun | null = null
+      if ('python' in python) {
+        const project = beam(elements)
+        const model = assembleFamily(project, familyOf('bending'), { order: 1, elementsPerSegment: elements, mass: 'consistent', bendingTheory: 'euler-bernoulli' })
+        const file = join(work, `pencil-${elements}.bin`)
+        writePencil(file, model.pencil.stiffness, model.pencil.mass)
+        try {
+          const out = execFileSync(
+            python.python,
+            [join(here, 'peer_scipy_bending.py'), file, String(model.pencil.stiffness.order), String(model.pencil.stiffness.halfBandwidth), String(MODES), String(LENGTH), String(betaScale)],
+            { encoding: 'utf8', maxBuffer: 16 * 1024 * 1024 },
+          )
+          peer = JSON.parse(out) as PeerRun
+        } catch (error) {
+          peer = { eigsh_s: NaN, build_s: NaN, failure: error instanceof Error ? error.message.split('\n')[0] : String(error) }
+        }
+        rmSync(file, { force: true })
+      }
+      const peerMs = peer && !peer.failure ? 1000 * peer.eigsh_s : null
+      const ratio = peerMs !== null ? peerMs / rodwave.medianMs : null
+      const rodwaveError = maxError(rodwave.frequenciesHz)
+      const peerError = peer?.errors ? Math.max(...peer.errors) : null
+      say(
+        `${elements.toLocaleString('en-US').padStart(10)}${(2 * elements).toLocaleString('en-US').padStart(11)}${fmt(rodwave.medianMs).padStart(11)}${(peerMs !== null ? fmt(peerMs) : '—').padStart(13)}${(ratio !== null ? `${ratio.toPrecision(2)}×` : '—').padStart(8)}${rodwaveError.toExponential(1).padStart(28)}${(peerError !== null ? peerError.toExponential(1) : '—').padStart(10)}`,
+      )
+      if (peer?.failure) say(`    SciPy at ${elements.toLocaleString('en-US')} elements: ${peer.failure}`)
+      rows.push({ elements, unknowns: 2 * elements, rodwave: { ...rodwave, maxError: rodwaveError }, scipy: peer, speedup: ratio })
+    }
+  } finally {
+    rmSync(work, { recursive: true, force: true })
+  }
+  say('Rodwave: median of 7 runs after a warm-up (one run from 10⁵ elements); SciPy: one eigsh call (its sparse LU included), matrices built beforehand.')
+  results.versusScipy = rows
+  return results
+}
+
+// Run alone.
+if (process.argv[1] && fileURLToPath(import.meta.url) === process.argv[1]) {
+  const say = (line = '') => process.stdout.write(`${line}\n`)
+  await runBendingBench(say, { quick: process.argv.includes('--quick'), million: process.argv.includes('--million') })
+}
