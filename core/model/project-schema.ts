@@ -439,7 +439,7 @@ function checkFamilyProperties(project: Project): ProjectIssue[] {
 }
 
 /** Unknowns of each family's discrete model, without building it (fixed ends not subtracted). */
-export function estimateUnknowns(project: Project): { family: Motion; unknowns: number }[] {
+export function estimateUnknowns(project: Project): { family: Motion; unknowns: number; solves: number }[] {
   const { elementOrder, elementsPerSegment, maxElementLength } = project.analysis
   const motions = project.motions.length ? project.motions : (['axial'] as Motion[])
   // Cheap guard first: a mesh far beyond the limit is refused without planning it.
@@ -452,9 +452,13 @@ export function estimateUnknowns(project: Project): { family: Motion; unknowns: 
     elements = countMeshElements(project, { order: 1, elementsPerSegment, maxElementLength })
   }
   const planes = project.segments.some((s) => hasTwoBendingPlanes(s.section)) ? 2 : 1
+  // Bending: a deflection and a rotation per node, less what the supports hold; each plane is its own solve.
+  const heldByEnd = { clamped: 2, pinned: 1, guided: 1, free: 0 } as const
+  const held = heldByEnd[project.ends.start.bending] + heldByEnd[project.ends.end.bending]
   return motions.map((family) => ({
     family,
-    unknowns: family === 'bending' ? 2 * (elements + 1) * planes : elements * (family === 'axial' ? elementOrder : 1) + 1,
+    unknowns: family === 'bending' ? 2 * (elements + 1) - held : elements * (family === 'axial' ? elementOrder : 1) + 1,
+    solves: family === 'bending' ? planes : 1,
   }))
 }
 
@@ -476,7 +480,7 @@ function checkMeshSize(project: Project): ProjectIssue | null {
     return { path: field, message: `gives a mesh of about ${largest.toExponential(2)} unknowns; Rodwave solves at most ${LIMITS.maxDegreesOfFreedom.toLocaleString('en-US')}` }
   }
   let product = 0
-  for (const f of families) product += f.unknowns * project.analysis.modes
+  for (const f of families) product += f.unknowns * f.solves * project.analysis.modes
   if (product > LIMITS.maxUnknownsTimesModes) {
     const path = project.analysis.modes > 1 ? 'analysis.modes' : field
     return {

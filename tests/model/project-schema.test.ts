@@ -109,3 +109,36 @@ describe('file-level problems', () => {
     expect(({} as Record<string, unknown>).polluted).toBeUndefined()
   })
 })
+
+describe('the mesh limit counts what each solve holds', () => {
+  // A bending mesh has a deflection and a rotation per node, less what the supports hold
+  // (clamped 2, pinned 1, guided 1, free 0); each principal plane is solved on its own.
+  const beam = (elements: number, start: string, end: string, shape: Record<string, unknown>, modes = 10) =>
+    readProjectDocument({
+      format: 'rodwave',
+      version: 2,
+      motions: ['bending'],
+      materials: [{ id: 'st', youngsModulus: 2e11, density: 7850 }],
+      segments: [{ length: 1, material: 'st', section: shape }],
+      ends: { start: { bending: start }, end: { bending: end } },
+      analysis: { elementsPerSegment: elements, modes },
+    })
+  const round = { shape: 'solid', diameter: 0.02 }
+  test('a clamped–free beam of 10⁶ elements has 2,000,000 unknowns: allowed', () => {
+    expect(beam(1_000_000, 'clamped', 'free', round).ok).toBe(true)
+  })
+  test('a free–free beam of 10⁶ elements has 2,000,002: refused, the field named', () => {
+    const read = beam(1_000_000, 'free', 'free', round)
+    expect(read.ok).toBe(false)
+    if (!read.ok) expect(read.issues[0].path).toBe('analysis.elementsPerSegment')
+  })
+  test('a rectangle’s two planes are two solves: each may have 2,000,000 unknowns, and their mode shapes count twice towards unknowns × modes', () => {
+    const rectangle = { shape: 'rectangle', width: 0.04, height: 0.02 }
+    // 2,000,000 × 30 modes = 6e7 ≤ 1e8 for one plane; × 2 planes = 1.2e8 > 1e8.
+    expect(beam(1_000_000, 'clamped', 'free', round, 30).ok).toBe(true)
+    const two = beam(1_000_000, 'clamped', 'free', rectangle, 30)
+    expect(two.ok).toBe(false)
+    if (!two.ok) expect(two.issues[0].path).toBe('analysis.modes')
+    expect(beam(1_000_000, 'clamped', 'free', rectangle, 10).ok).toBe(true)
+  })
+})
