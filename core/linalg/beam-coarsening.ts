@@ -87,21 +87,22 @@ export function beamCoarsening(fine: BeamLayout, ratio: number): BeamCoarsening 
       const t = (fine.x[i] - xa) / span
       const t2 = t * t
       const t3 = t2 * t
-      // Hermite basis on [a, b]: w = h00 w_a + h10 H θ_a + h01 w_b + h11 H θ_b, with θ = S/ℓc.
-      const wWeights = [2 * t3 - 3 * t2 + 1, ((t3 - 2 * t2 + t) * span) / lc, -2 * t3 + 3 * t2, ((t3 - t2) * span) / lc]
-      // s = ℓf θ = ℓf dw/dx = (ℓf/H) dw/dt.
-      const sWeights = [((6 * t2 - 6 * t) * lf) / span, ((3 * t2 - 4 * t + 1) * lf) / lc, ((-6 * t2 + 6 * t) * lf) / span, ((3 * t2 - 2 * t) * lf) / lc]
-      const sources = [coarseIndex[2 * I], coarseIndex[2 * I + 1], coarseIndex[2 * I + 2], coarseIndex[2 * I + 3]]
       for (let kind = 0; kind < 2; kind++) {
         const f = fineIndex[2 * i + kind]
         if (f < 0) continue
-        const w = kind === 0 ? wWeights : sWeights
         let slot = 0
         for (let c = 0; c < 4; c++) {
+          const source = coarseIndex[2 * I + c]
+          // Hermite basis on [a, b]: w = h00 w_a + h10 H θ_a + h01 w_b + h11 H θ_b, with θ = S/ℓc;
+          // s = ℓf θ = ℓf dw/dx = (ℓf/H) dw/dt.
+          const w =
+            kind === 0
+              ? c === 0 ? 2 * t3 - 3 * t2 + 1 : c === 1 ? ((t3 - 2 * t2 + t) * span) / lc : c === 2 ? -2 * t3 + 3 * t2 : ((t3 - t2) * span) / lc
+              : c === 0 ? ((6 * t2 - 6 * t) * lf) / span : c === 1 ? ((3 * t2 - 4 * t + 1) * lf) / lc : c === 2 ? ((-6 * t2 + 6 * t) * lf) / span : ((3 * t2 - 2 * t) * lf) / lc // prettier-ignore
           // Exact zeros (a coarse node's own value) are left out, as are removed coarse unknowns.
-          if (sources[c] < 0 || Math.abs(w[c]) < 1e-15) continue
-          columns[4 * f + slot] = sources[c]
-          weights[4 * f + slot] = w[c]
+          if (source < 0 || Math.abs(w) < 1e-15) continue
+          columns[4 * f + slot] = source
+          weights[4 * f + slot] = w
           slot++
         }
       }
@@ -176,6 +177,25 @@ export function prolongateBeam(map: BeamCoarsening, coarse: Float64Array, fine: 
       s += weights[4 * f + p] * coarse[I]
     }
     fine[f] = s
+  }
+  return fine
+}
+
+/** prolongateBeam of several vectors in one pass over P (P's storage is read once, not once per vector). */
+export function prolongateBeamAll(map: BeamCoarsening, coarse: readonly Float64Array[]): Float64Array[] {
+  const { columns, weights } = map
+  const m = coarse.length
+  const fine = coarse.map(() => new Float64Array(map.fineOrder))
+  const sums = new Float64Array(m)
+  for (let f = 0; f < map.fineOrder; f++) {
+    sums.fill(0)
+    for (let p = 0; p < 4; p++) {
+      const I = columns[4 * f + p]
+      if (I < 0) break
+      const w = weights[4 * f + p]
+      for (let j = 0; j < m; j++) sums[j] += w * coarse[j][I]
+    }
+    for (let j = 0; j < m; j++) fine[j][f] = sums[j]
   }
   return fine
 }

@@ -22,7 +22,7 @@
  */
 import { seededRandom, type RandomSource } from '../random'
 import { coarseningMap, coarsenPencil, interpolateSmooth } from './galerkin-coarsening'
-import { beamCoarsening, coarsenBeamMass, coarsenBeamPencil, prolongateBeam, rigidMotionVectors, type BeamLayout } from './beam-coarsening'
+import { beamCoarsening, coarsenBeamMass, coarsenBeamPencil, prolongateBeam, prolongateBeamAll, rigidMotionVectors, type BeamLayout } from './beam-coarsening'
 import { assembleFromForms, beamFormsGram, coarsenBeamForms } from './beam-energy'
 import {
   blockEnergies,
@@ -203,11 +203,12 @@ function floorShift(pencil: BandPencil, lastSettled: number, nextCoarse: number 
  * rounding, ε·|w| per node, costs the energy about ε²·N⁴ relative, 1e-8 at 10⁶ elements).
  */
 function settledModes(level: Level, map: ReturnType<typeof beamCoarsening>, coarse: LevelResult, count: number): { values: number[]; vectors: Float64Array[] } {
-  const { pencil, order: n } = level
+  const { pencil } = level
   const values: number[] = []
   const vectors: Float64Array[] = []
+  const interpolated = prolongateBeamAll(map, coarse.vectors.slice(0, count))
   for (let j = 0; j < count; j++) {
-    const v = prolongateBeam(map, coarse.vectors[j], new Float64Array(n))
+    const v = interpolated[j]
     values.push(coarse.values[j])
     normaliseAndOrient(pencil, v)
     vectors.push(v)
