@@ -1,0 +1,23 @@
+// The unit tests of the engine that `npm run test:mutation` (Stryker, stryker.config.json) runs
+// against each mutant of core/: no command-line processes, Electron, renderer or browser tests,
+// which are slow or spawn processes and do not exercise the mutated folders any further.
+import { defineConfig } from 'vitest/config'
+
+const root = decodeURIComponent(new URL('../..', import.meta.url).pathname).replace(/^\/([A-Za-z]:)/, '$1')
+
+export default defineConfig({
+  root,
+  test: {
+    include: [
+      'tests/exact/**/*.test.ts',
+      'tests/fe/**/*.test.ts',
+      'tests/linalg/**/*.test.ts',
+      'tests/analysis/**/*.test.ts',
+      'tests/model/**/*.test.ts',
+      'tests/properties/**/*.test.ts',
+    ],
+    environment: 'node',
+    testTimeout: 60_000,
+    pool: 'threads',
+  },
+})
