@@ -16,6 +16,7 @@ export default defineConfig({
       'tests/model/**/*.test.ts',
       'tests/properties/**/*.test.ts',
     ],
+    setupFiles: ['tests/mutation/skip-in-mutation-runs.ts'],
     environment: 'node',
     testTimeout: 60_000,
     pool: 'threads',
