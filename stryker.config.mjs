@@ -21,7 +21,7 @@ export default {
   incremental: true,
   incrementalFile: 'reports/mutation/stryker-incremental.json',
   tempDirName: 'reports/stryker-tmp',
-  ignorePatterns: ['dist', 'release', 'coverage', 'test-results', 'assets', 'bench/results', 'renderer', 'electron'],
+  ignorePatterns: ['dist', 'release', 'coverage', 'test-results', 'assets', 'bench/results', 'renderer', 'electron', 'reports'],
   // The machine is shared: two test processes at most.
   concurrency: 2,
   timeoutFactor: 2,

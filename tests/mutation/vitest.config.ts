@@ -20,5 +20,9 @@ export default defineConfig({
     environment: 'node',
     testTimeout: 60_000,
     pool: 'threads',
+    // Test files share their workers' modules from one mutant run to the next: Stryker switches
+    // mutants at run time (its instrumented code reads the active mutant), so nothing needs a
+    // fresh import, and skipping the re-import makes each mutant run about three times faster.
+    isolate: false,
   },
 })
