@@ -93,7 +93,19 @@ describe('2-node meshes of a uniform fixed–free bar', () => {
       // Mode 2 (the first elastic one), lumped: below the exact c/(2L).
       expect(point.errors[1]!).toBeLessThan(0)
     }
-    // Errors at round-off give no observed order: the rigid mode has none.
+    // Errors at round-off give no observed order and no extrapolation: the rigid mode stays at 0.
     expect(series.observedOrder[0]).toBeNull()
+    expect(series.extrapolatedHz[0]).toBe(0)
+  })
+
+  test('a mode the coarsest mesh cannot show (one element, one unknown) is not extrapolated: the finest mesh’s value stands', () => {
+    const study = convergenceStudy(uniformBar({ length: L }), { modes: 2, densities: [1, 8, 16], orders: [1], masses: ['consistent'] })
+    const [series] = study.series
+    expect(series.points[0].frequenciesHz.length).toBe(1)
+    expectRelative(series.extrapolatedHz[1]!, meshHz('consistent', 16, 2), 1e-11, 'mode 2: the 16-element value')
+    // Mode 1 has all three meshes: extrapolated as usual.
+    const [f3, f2, f1] = [1, 8, 16].map((e) => meshHz('consistent', e, 1))
+    const p = Math.log((f3 - f2) / (f2 - f1)) / Math.log(2)
+    expectRelative(series.extrapolatedHz[0]!, f1 + (f1 - f2) / (2 ** p - 1), 1e-9, 'mode 1: Richardson')
   })
 })
