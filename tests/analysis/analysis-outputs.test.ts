@@ -121,6 +121,37 @@ describe('the solve document and the modal summary of a uniform bar', () => {
   })
 })
 
+describe('the solve document of a compressed column analysed in bending', () => {
+  test('mesh by element length, the bending theory, the preload and the buckling check (Euler’s load)', () => {
+    const D = 0.02
+    const I = (Math.PI / 64) * D ** 4
+    const project = makeProject({
+      version: 2,
+      motions: ['axial', 'bending'],
+      materials: [{ ...STEEL, poissonRatio: 0.3 }],
+      segments: [{ length: L, material: 'steel', section: { shape: 'solid', diameter: D } }],
+      ends: { start: { axial: 'fixed', bending: 'pinned' }, end: { axial: 'free', bending: 'pinned' } },
+      analysis: { maxElementLength: 0.05, modes: 2 },
+      excitations: [{ label: 'say "hum"', hz: 50 }],
+      preload: -300,
+    })
+    const analysis = analyseProject(project)
+    const doc = solveDocument(analysis)
+    expect(doc.analysis).toEqual({ elementOrder: 1, maxElementLength: 0.05, mass: 'consistent', modes: 2, bendingTheory: 'euler-bernoulli' })
+    expect(doc.preload).toBe(-300)
+    const euler = (Math.PI * Math.PI * E * I) / (L * L)
+    expect(doc.buckling).not.toBeNull()
+    expect(doc.buckling!.compression).toBe(300)
+    expectRelative(doc.buckling!.criticalCompression, euler, 1e-12, 'critical compression')
+    expectRelative(doc.buckling!.ratio, 300 / euler, 1e-12, 'ratio')
+    expect(doc.buckling!.method).toBe('exact, Euler–Bernoulli segments')
+    expect(Object.keys(doc.reference.families)).toEqual(['axial', 'bending'])
+    expect(doc.checks.sturmCount.families.bending.passed).toBe(true)
+    // A quote inside a label is doubled inside the quoted cell (RFC 4180).
+    expect(modalSummaryCsv(analysis)).toContain(',"say ""hum""",')
+  })
+})
+
 describe('the analysis’s own warnings', () => {
   const D = 0.02
   const I = (Math.PI / 64) * D ** 4
@@ -188,6 +219,17 @@ describe('the analysis’s own warnings', () => {
     // Pinned–pinned: the half-wave of mode 1 is the length, 0.2 m / 15 mm = 13 radii.
     expect(warnings[0].message.startsWith('Segment 1 is stubby for bending mode 1: half a wavelength there is only 13 radii of gyration.')).toBe(true)
     expect(analyseProject(stubby('timoshenko')).warnings).toEqual([])
+    // A rectangle bends in two planes: the warning names the plane where the section is stubby.
+    const bar = makeProject({
+      version: 2,
+      motions: ['bending'],
+      materials: [{ ...STEEL, poissonRatio: 0.3 }],
+      segments: [{ length: 0.2, material: 'steel', section: { shape: 'rectangle', width: 0.06, height: 0.012 } }],
+      ends: { start: { bending: 'pinned' }, end: { bending: 'pinned' } },
+      analysis: { elementsPerSegment: 20, modes: 1 },
+    })
+    const head = 'Segment 1 is stubby for bending mode 1 (strong plane)'
+    expect(analyseProject(bar).warnings.map((w) => w.message.slice(0, head.length))).toEqual([head])
     // A slender rod (2 m of 20 mm: 400 radii per half-wave): no warning.
     expect(analyseProject(column({ motions: ['bending'] })).warnings).toEqual([])
   })

@@ -12,7 +12,7 @@
  */
 import { describe, expect, test } from 'vitest'
 import { convergenceStudy } from '../../core/analysis/convergence'
-import { expectRelative, STEEL, uniformBar } from '../helpers'
+import { expectRelative, makeProject, STEEL, uniformBar } from '../helpers'
 
 const c = Math.sqrt(STEEL.youngsModulus / STEEL.density)
 const L = 0.8
@@ -107,5 +107,26 @@ describe('2-node meshes of a uniform fixed–free bar', () => {
     const [f3, f2, f1] = [1, 8, 16].map((e) => meshHz('consistent', e, 1))
     const p = Math.log((f3 - f2) / (f2 - f1)) / Math.log(2)
     expectRelative(series.extrapolatedHz[0]!, f1 + (f1 - f2) / (2 ** p - 1), 1e-9, 'mode 1: Richardson')
+  })
+})
+
+describe('bending', () => {
+  test('one element (the Hermite cubic) whatever orders are asked, three masses; the pinned–pinned reference (nπ/L)²√(EI/ρA)/2π', () => {
+    const d = 0.02
+    const project = makeProject({
+      version: 2,
+      motions: ['bending'],
+      materials: [STEEL],
+      segments: [{ length: L, material: 'steel', section: { shape: 'solid', diameter: d } }],
+      ends: { start: { bending: 'pinned' }, end: { bending: 'pinned' } },
+    })
+    const study = convergenceStudy(project, { modes: 1, densities: [4, 8], orders: [2] })
+    expect(study.family.key).toBe('bending')
+    expect(study.series.map((s) => `${s.elementOrder} ${s.mass}`)).toEqual(['1 consistent', '1 lumped', '1 mixed'])
+    // Two unknowns per node: 8 elements, 9 nodes, both ends pinned: 16 unknowns.
+    expect(study.series[0].points.map((p) => p.dofs)).toEqual([8, 16])
+    const I = (Math.PI / 64) * d ** 4
+    const A = (Math.PI / 4) * d * d
+    expectRelative(study.referenceHz[0], ((Math.PI / L) ** 2 * Math.sqrt((STEEL.youngsModulus * I) / (STEEL.density * A))) / (2 * Math.PI), 1e-12, 'reference')
   })
 })

@@ -11,6 +11,7 @@ import { describeSensitivity, frequencySensitivities } from '../../core/analysis
 import { separationBetweenBands } from '../../core/analysis/resonance'
 import { tuneParameter, TuneError } from '../../core/analysis/tuner'
 import { scatterDraw } from '../../core/analysis/tolerance-scatter'
+import { designParameters } from '../../core/analysis/design-parameters'
 import { seededRandom } from '../../core/random'
 import { expectRelative, makeProject, STEEL, uniformBar } from '../helpers'
 
@@ -27,6 +28,26 @@ describe('sensitivity in words', () => {
     const density = frequencySensitivities(uniformBar({ length: L }), 1).find((x) => x.parameter === 'materials[0].density')!
     // df/dρ = −f/(2ρ) (§1): a zero step changes nothing and still reads as an increase that raises by 0.
     expect(describeSensitivity(density, 0, 'nothing', hz)).toBe('increasing the density of steel by nothing raises mode 1 by 0.000 Hz')
+  })
+})
+
+describe('parameters of other motions have no axial effect', () => {
+  test('a hub’s polar and transverse inertia, Poisson’s ratio, the preload: df = 0 for the axial modes', () => {
+    const project = makeProject({
+      version: 2,
+      motions: ['axial', 'torsion', 'bending'],
+      materials: [{ ...STEEL, poissonRatio: 0.3 }],
+      segments: [{ length: 1, material: 'steel', section: { shape: 'solid', diameter: 0.03 } }],
+      masses: [{ at: 1, mass: 2, polarInertia: 0.01, transverseInertia: 0.02 }],
+      springs: [{ at: 0.5, stiffness: 100, motion: 'torsion' }],
+      ends: { start: { axial: 'fixed', torsion: 'fixed', bending: 'clamped' }, end: { axial: 'free', torsion: 'free', bending: 'free' } },
+      preload: 500,
+    })
+    const parameters = designParameters(project).filter((p) => ['polarInertia', 'transverseInertia', 'preload', 'poissonRatio'].includes(p.target.kind))
+    expect(parameters.length).toBe(4)
+    const s = frequencySensitivities(project, 2, parameters)
+    expect(s.length).toBe(8)
+    for (const x of s) expect(x.derivative, x.parameter).toBe(0)
   })
 })
 

@@ -8,7 +8,7 @@
  */
 import { describe, expect, test } from 'vitest'
 import { analyseProject, type ModalAnalysis } from '../../core/analysis/modal-analysis'
-import { familyWarnings, modelWarnings } from '../../core/analysis/model-checks'
+import { familyWarnings, modeChecks, modelWarnings } from '../../core/analysis/model-checks'
 import { makeProject, STEEL } from '../helpers'
 
 const E = STEEL.youngsModulus
@@ -69,6 +69,8 @@ describe('heavy masses: the ratio to the bar’s mass', () => {
     expect(heavy.length).toBe(1)
     expect(heavy[0].message).toContain(`Point mass 1 (“flywheel”) is 1.5e+7 times the bar's mass`)
     expect(warningsOf({ masses: [{ at: 1.3, mass: 0.8e7 * barMass }] }).filter((w) => w.code === 'heavy-mass')).toEqual([])
+    const [unlabelled] = warningsOf({ masses: [{ at: 1.3, mass: 3e7 * barMass }] }).filter((w) => w.code === 'heavy-mass')
+    expect(unlabelled.message.startsWith("Point mass 1 is 3.0e+7 times the bar's mass")).toBe(true)
     // Against the first segment's mass alone this one would be above the limit: the whole bar counts.
     const firstOnly = RHO * area(0.03) * 0.4
     const mass = 0.9e7 * barMass
@@ -102,6 +104,16 @@ describe('elements and sections', () => {
     expect(wide.length).toBe(1)
     expect(wide[0].message).toContain('span 4.0e+8')
     expect(span(5e7)).toEqual([])
+  })
+})
+
+describe('the backward error of a vector that is all zeros', () => {
+  test('is 0, not 0/0: nothing is left of the residual', () => {
+    const analysis = analyseProject(makeProject({ materials: [STEEL], segments }), { elementsPerSegment: 8, modes: 2 }, { withReference: false }).families[0]
+    const zero = { ...analysis, vectors: [new Float64Array(analysis.vectors[0].length), analysis.vectors[1]] }
+    const checks = modeChecks(zero)
+    expect(checks.backwardErrors[0]).toBe(0)
+    expect(checks.backwardErrors[1]).toBeLessThanOrEqual(checks.limit)
   })
 })
 
