@@ -100,3 +100,36 @@ describe('the finite-element route', () => {
     expectRelative(critical.load, engesser, 1e-6, 'Timoshenko pinned–pinned')
   })
 })
+
+describe('the finite-element route at its edges', () => {
+  test('free–guided (a free translation beside a free end rotation): the cantilever load P_E/4 to 1e-7', () => {
+    // Shifting the column sideways costs nothing, so free–guided buckles as a clamped–free
+    // cantilever of the same length: π²EI/(4L²) (Timoshenko & Gere, Theory of Elastic Stability,
+    // §2.1, from memory). The check's own spring on the free translation must sit on a
+    // deflection unknown, not on the free end's rotation, which is then the second unknown.
+    // Measured error 3.8e-8 (round-off of the nearly singular pencil at 128 elements): 1e-7.
+    const project = column('free', 'guided', { cone: true, preload: -10 })
+    const critical = criticalCompression(project, effectiveSettings(project))
+    expect(critical.method).toMatch(/^finite elements/)
+    expectRelative(critical.load, EULER / 4, 1e-7, 'free–guided')
+    const flipped = column('guided', 'free', { cone: true, preload: -10 })
+    expectRelative(criticalCompression(flipped, effectiveSettings(flipped)).load, EULER / 4, 1e-7, 'guided–free')
+  })
+
+  test('a thin wire (d = 0.1 mm, P_E ≈ 1e-5 N) on the finite-element route: P_E to 1e-8, not to an absolute step', () => {
+    const wire = 1e-4
+    const project = makeProject({
+      version: 2,
+      motions: ['bending'],
+      materials: [{ ...STEEL, poissonRatio: NU }],
+      segments: [{ length: L, material: 'steel', section: { shape: 'cone', startDiameter: wire, endDiameter: wire } }],
+      ends: { start: { bending: 'pinned' }, end: { bending: 'pinned' } },
+      analysis: { elementsPerSegment: 20, modes: 2 },
+      preload: -1e-6,
+    })
+    // Euler's load π²EI/L² (Timoshenko & Gere, Theory of Elastic Stability, §2.2, from memory).
+    const euler = (Math.PI * Math.PI * E * ((Math.PI / 64) * wire ** 4)) / (L * L)
+    expect(euler).toBeLessThan(1e-4)
+    expectRelative(criticalCompression(project, effectiveSettings(project)).load, euler, 1e-8, 'thin wire')
+  })
+})
