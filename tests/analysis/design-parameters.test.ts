@@ -9,6 +9,7 @@
 import { describe, expect, test } from 'vitest'
 import { designParameters, findParameter, sectionDimensions, withParameter } from '../../core/analysis/design-parameters'
 import type { Project } from '../../core/model/project'
+import { displayUnit } from '../../core/model/units'
 import { makeProject, STEEL } from '../helpers'
 
 function full(motions: string[], extra: Record<string, unknown> = {}): Project {
@@ -81,6 +82,39 @@ describe('the parameters each motion offers', () => {
     expect(paths(full(['bending'], { analysis: { bendingTheory: 'timoshenko' } }))).toContain('materials[0].poissonRatio')
     // No preload, no preload parameter.
     expect(paths(full(['bending']))).not.toContain('preload')
+  })
+
+  test('what a file leaves out or sets to zero is no parameter: a mass without transverse inertia, a bending spring without (or with zero) rotational stiffness', () => {
+    // A parameter that is absent (or 0) contributes nothing to the energy functionals and has no
+    // value to scale (the header rules above): only the present, positive ones are offered.
+    const project = full(['bending'], {
+      masses: [
+        { at: 0.2, mass: 1.5, transverseInertia: 0.02 },
+        { at: 0.7, mass: 0.5 },
+        { at: 0.8, mass: 0.4, transverseInertia: 0 },
+      ],
+      springs: [
+        { at: 0.9, stiffness: 2e6, motion: 'bending' },
+        { at: 1.0, stiffness: 3e5, rotationalStiffness: 0, motion: 'bending' },
+        { at: 1.2, stiffness: 0, rotationalStiffness: 500, motion: 'bending' },
+      ],
+    })
+    const list = paths(project)
+    expect(list).toContain('masses[0].transverseInertia')
+    expect(list).not.toContain('masses[1].transverseInertia')
+    expect(list).not.toContain('masses[2].transverseInertia')
+    expect(list).toEqual(expect.arrayContaining(['springs[0].stiffness', 'springs[1].stiffness', 'springs[2].rotationalStiffness']))
+    expect(list).not.toContain('springs[0].rotationalStiffness')
+    expect(list).not.toContain('springs[1].rotationalStiffness')
+  })
+
+  test('a density is a density: shown in kg/m³ (SI) and lbm/in³ (US)', () => {
+    // The SI unit of density is kg/m³ (BIPM, The International System of Units, derived units);
+    // lbm/in³ is the usual US customary one (common practice, no source).
+    const density = designParameters(full(['axial'])).find((p) => p.path === 'materials[0].density')!
+    expect(density.value).toBe(STEEL.density)
+    expect(displayUnit('SI', density.quantity).symbol).toBe('kg/m³')
+    expect(displayUnit('US', density.quantity).symbol).toBe('lbm/in³')
   })
 
   test('a given shear modulus is offered instead of Poisson’s ratio', () => {
