@@ -8,7 +8,7 @@ import globals from 'globals'
 const nodeModules = ['node:*', 'fs', 'fs/*', 'path', 'os', 'child_process', 'worker_threads', 'url', 'util', 'crypto', 'stream']
 
 export default tseslint.config(
-  { ignores: ['dist/**', 'release/**', 'node_modules/**', 'bench/results/**', 'coverage/**', 'test-results/**'] },
+  { ignores: ['dist/**', 'release/**', 'node_modules/**', 'bench/results/**', 'coverage/**', 'test-results/**', 'reports/**'] },
   js.configs.recommended,
   ...tseslint.configs.recommended,
   ...pluginVue.configs['flat/recommended'],

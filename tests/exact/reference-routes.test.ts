@@ -214,6 +214,8 @@ describe('transfer-matrix route', () => {
     const length = 0.8
     const project = makeProject({ materials, segments: [{ length, material: 'steel', section: { shape: 'cone', startDiameter: d0, endDiameter: d1 } }] })
     const reference = exactReference(project, MODES)
+    // Transfer matrices solve the bar's equation without discretisation: an exact method.
+    expect(reference.method).toBe('exact')
     expect(reference.formulation).toMatch(/transfer matrices/)
     const c = Math.sqrt(205e9 / 7850)
     const r1 = (d1 * length) / (d1 - d0)
@@ -221,5 +223,45 @@ describe('transfer-matrix route', () => {
     const g = (k: number) => k * r1 * Math.cos(k * length) - Math.sin(k * length)
     const roots = scanRoots(g, (2 * Math.PI * reference.frequenciesHz[MODES - 1] * 1.05) / c, 3000).map(([a, b]) => (bisect(g, a, b) * c) / (2 * Math.PI))
     reference.frequenciesHz.forEach((f, i) => expectRelative(f, roots[i], 1e-11, `f${i + 1}`))
+  })
+})
+
+describe('one attachment away from the free end: not a closed-form case', () => {
+  // Fixed at 0, free at L, a point mass M or a grounded spring K at a: u = A sin kx before a,
+  // B cos k(L − x) after it; continuity at a and the jump EA[u′] = −ω²M u (or K u) give, derived
+  // here, cos kL − (kM/ρA) sin ka cos k(L − a) = 0 for the mass and
+  // cos kL + (K/(EA k)) sin ka cos k(L − a) = 0 for the spring. At a = L they reduce to
+  // λ tan λ = m/M and tan λ = −λ EA/(KL) above (Rao, Blevins, as cited at the top of this file).
+  const a = 0.45 * L
+  const rootsOf = (g: (k: number) => number) =>
+    scanRoots(g, ((MODES + 1) * Math.PI) / L, 4000)
+      .map(([lo, hi]) => bisect(g, lo, hi))
+      .slice(0, MODES)
+  test('a mass of the bar’s own mass at 0.45 L: the chain route, each frequency a root of the equation', () => {
+    const M = BAR_MASS
+    const reference = exactReference(uniformBar({ length: L, diameter: D, extra: { masses: [{ at: a, mass: M }] } }), MODES)
+    // Transfer matrices solve the bar's equation without discretisation: an exact method.
+    expect(reference.method).toBe('exact')
+    expect(reference.formulation).toMatch(/transfer matrices/)
+    const roots = rootsOf((k) => Math.cos(k * L) - ((k * M) / (RHO * AREA)) * Math.sin(k * a) * Math.cos(k * (L - a)))
+    expect(roots.length).toBe(MODES)
+    reference.frequenciesHz.forEach((f, i) => expectRelative((2 * Math.PI * f) / C, roots[i], 1e-11, `k${i + 1}`))
+  })
+  test('a spring of EA/L at 0.45 L: the chain route, each frequency a root of the equation', () => {
+    const K = (E * AREA) / L
+    const reference = exactReference(uniformBar({ length: L, diameter: D, extra: { springs: [{ at: a, stiffness: K }] } }), MODES)
+    // Transfer matrices solve the bar's equation without discretisation: an exact method.
+    expect(reference.method).toBe('exact')
+    expect(reference.formulation).toMatch(/transfer matrices/)
+    const roots = rootsOf((k) => Math.cos(k * L) + (K / (E * AREA * k)) * Math.sin(k * a) * Math.cos(k * (L - a)))
+    expect(roots.length).toBe(MODES)
+    reference.frequenciesHz.forEach((f, i) => expectRelative((2 * Math.PI * f) / C, roots[i], 1e-11, `k${i + 1}`))
+  })
+  test('on a 10 m bar, an attachment 5 nm from the free end sits on it (within SAME_POSITION·L = 10 nm, core/model/geometry.ts): the tip closed form', () => {
+    const long = 10
+    const mass = uniformBar({ length: long, diameter: D, extra: { masses: [{ at: long - 5e-9, mass: 2 }] } })
+    expect(exactReference(mass, 2)).toMatchObject({ method: 'exact', formulation: expect.stringMatching(/tip mass/) })
+    const spring = uniformBar({ length: long, diameter: D, extra: { springs: [{ at: long - 5e-9, stiffness: 1e6 }] } })
+    expect(exactReference(spring, 2)).toMatchObject({ method: 'exact', formulation: expect.stringMatching(/tip spring/) })
   })
 })

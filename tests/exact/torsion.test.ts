@@ -241,6 +241,10 @@ describe('torsion input checks', () => {
     [{ segments: [good], disks: [{ at: 1.5, polarInertia: 1 }] }, /disks\[0\]\.polarInertia\.at must lie on the shaft/],
     [{ segments: [good], springs: [{ at: 0.5, stiffness: -1 }] }, /springs\[0\]\.stiffness must be a positive number/],
     [{ segments: [] }, /at least one segment/],
+    // A disk of no inertia or a spring of no stiffness is no attachment: refused, not ignored.
+    [{ segments: [good], disks: [{ at: 0.5, polarInertia: 0 }] }, /^disks\[0\]\.polarInertia must be a positive number \(kg·m²\), got 0$/],
+    [{ segments: [good], springs: [{ at: 0.5, stiffness: 0 }] }, /^springs\[0\]\.stiffness must be a positive number \(N·m\/rad\), got 0$/],
+    [{ segments: [good], ends: { start: 'fixed', end: 'guided' } }, /^ends\.end must be "fixed" or "free" for torsion$/],
   ])('%o is refused with the field named', (partial, message) => {
     expect(() => torsionStationChain(shaft(partial as Parameters<typeof shaft>[0]))).toThrow(message)
   })
