@@ -71,10 +71,14 @@ describe('the tuner refuses what it cannot do, naming it', () => {
       [0, 1],
       [1, 1],
       [2, 1],
+    ]) {
+      expect(() => tuneParameter(bar, { parameter: 'segments[0].length', min, max }), `${min} … ${max}`).toThrow(new TuneError('the bounds must satisfy 0 < min < max'))
+    }
+    for (const [min, max] of [
       [Number.NaN, 1],
       [0.5, Infinity],
     ]) {
-      expect(() => tuneParameter(bar, { parameter: 'segments[0].length', min, max }), `${min} … ${max}`).toThrow(new TuneError('the bounds must satisfy 0 < min < max'))
+      expect(() => tuneParameter(bar, { parameter: 'segments[0].length', min, max }), `${min} … ${max}`).toThrow(new TuneError('the bounds must be finite numbers'))
     }
     expect(() => tuneParameter(bar, { parameter: 'segments[0].length', min: 0.5, max: 2, motion: 'torsion' })).toThrow(new TuneError('the project does not analyse torsion'))
     expect(() => tuneParameter(bar, { parameter: 'segments[0].length', min: 0.5, max: 2, targetHz: 0 })).toThrow(new TuneError('the target frequency must be > 0'))
