@@ -11,10 +11,11 @@ import type { Motion } from '../../core/model/project'
 import { displayUnit, toDisplay, type UnitSystem } from '../../core/model/units'
 import { axisStyle, baseOption, paletteOf, tooltipBase, type ChartBuildOptions } from '../../core/charts/chart-common'
 import { escapeHtml, figure } from '../../core/charts/chart-text'
+import { effectiveLower, upperQuantityName, type ModeShapeLower } from '../../core/charts/mode-shape-chart'
 import type { FamilyShapeCurve } from '../solver/solver-tasks'
 
 /** What the lower plot shows: the stress, the strain-like quantity (strain, twist rate, curvature), or (bending) the slope. */
-export type ShapeLower = 'stress' | 'strain' | 'slope'
+export type ShapeLower = ModeShapeLower
 
 export interface FamilyShapeData {
   readonly motion: Motion
@@ -29,16 +30,6 @@ export function lowerChoices(motion: Motion): { readonly value: ShapeLower; read
   if (motion === 'torsion') return [{ value: 'stress', title: 'shear stress' }, { value: 'strain', title: 'twist rate' }]
   if (motion === 'bending') return [{ value: 'stress', title: 'bending stress' }, { value: 'strain', title: 'curvature' }, { value: 'slope', title: 'slope' }]
   return [{ value: 'stress', title: 'stress' }, { value: 'strain', title: 'strain' }]
-}
-
-/** A lower plot the family has (the slope is bending's alone). */
-export function lowerFor(motion: Motion, wanted: ShapeLower): ShapeLower {
-  return lowerChoices(motion).some((c) => c.value === wanted) ? wanted : 'stress'
-}
-
-/** The upper plot's title: what moves. */
-export function upperName(motion: Motion): string {
-  return motion === 'torsion' ? 'Twist θ / θ_peak' : motion === 'bending' ? 'Deflection w / w_peak' : 'Displacement u / u_peak'
 }
 
 /**
@@ -70,7 +61,7 @@ export interface FamilyShapeChartOptions extends ChartBuildOptions {
 
 export function familyShapeChartOption(data: FamilyShapeData, options: FamilyShapeChartOptions): EChartsOption {
   const palette = paletteOf(options)
-  const lowerKind = lowerFor(data.motion, options.lower)
+  const lowerKind = effectiveLower(options.lower, data.motion)
   const lower = lowerQuantityOf(data.motion, lowerKind, options.units)
   const lengthUnit = displayUnit(options.units, 'length')
   const toLength = (x: number) => toDisplay(options.units, 'length', x)
@@ -153,7 +144,7 @@ export function familyShapeChartOption(data: FamilyShapeData, options: FamilySha
       {
         type: 'value',
         gridIndex: 0,
-        name: upperName(data.motion),
+        name: upperQuantityName(data.motion),
         nameLocation: 'middle',
         nameGap: 40,
         min: -1,
