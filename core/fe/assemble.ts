@@ -311,6 +311,7 @@ function assembleBending(project: Project, plane: BendingPlane, settings: Assemb
   // Unknowns are [w, ℓθ]: element entries scale by 1/ℓ per rotation index.
   const d = [1, 1 / scale, 1, 1 / scale]
   const dofs = new Int32Array(4)
+  // Adds a scaled element matrix at dofs (removed unknowns skipped).
   const add = (a: SymmetricBandMatrix, matrix: Float64Array): void => {
     for (let p = 0; p < 4; p++) {
       const i = dofs[p]
@@ -319,7 +320,7 @@ function assembleBending(project: Project, plane: BendingPlane, settings: Assemb
       for (let q = 0; q < 4; q++) {
         const j = dofs[q]
         if (j < 0) continue
-        const v = matrix[4 * p + q] * d[p] * d[q]
+        const v = matrix[4 * p + q]
         row += v
         if (j > i) a.offDiagonals[j - i - 1][i] += v
       }
@@ -335,14 +336,14 @@ function assembleBending(project: Project, plane: BendingPlane, settings: Assemb
     const section = beamSection(project, piece.segment, plane, theory)
     const start = mesh.segmentStart[piece.segment]
     const segmentLength = project.segments[piece.segment].length
-    let shared: BeamElementMatrices | null = null
+    let shared: ScaledBeamElement | null = null
     for (let e = piece.firstElement; e < piece.firstElement + piece.count; e++) {
-      let matrices: BeamElementMatrices | null = shared
-      if (!matrices) {
+      let element: ScaledBeamElement | null = shared
+      if (!element) {
         const t0 = (mesh.x[e] - start) / segmentLength
         const t1 = (mesh.x[e + 1] - start) / segmentLength
         const along = (f: (t: number) => number) => (t: number) => f(t0 + (t1 - t0) * t)
-        matrices = beamElementMatrices(
+        const matrices = beamElementMatrices(
           piece.length,
           section.uniform
             ? section
@@ -355,21 +356,29 @@ function assembleBending(project: Project, plane: BendingPlane, settings: Assemb
           theory,
           settings.mass,
         )
-        if (section.uniform) shared = matrices
-        forms.push(...elementForm(scaled(matrices.elastic, d), scaled(matrices.geometric, d)))
+        element = scaledBeamElement(matrices, d)
+        if (section.uniform) shared = element
+        forms.push(...elementForm(element.elastic, element.geometric))
       }
       formOfElement[e] = forms.length / FORM_SIZE - 1
-      elementShearParameter[e] = matrices.shearParameter
+      elementShearParameter[e] = element.shearParameter
       dofs[0] = index[2 * e]
       dofs[1] = index[2 * e + 1]
       dofs[2] = index[2 * e + 2]
       dofs[3] = index[2 * e + 3]
-      add(elastic, matrices.elastic)
-      add(geometric, matrices.geometric)
-      add(mass, matrices.mass)
-      // Sideways support motion: every deflection, held ones included, moves by 1.
-      for (let p = 0; p < 4; p++) {
-        if (dofs[p] >= 0) influence[dofs[p]] += (matrices.mass[4 * p] + matrices.mass[4 * p + 2]) * d[p]
+      const first = dofs[0]
+      if (first >= 0 && dofs[1] === first + 1 && dofs[2] === first + 2 && dofs[3] === first + 3) {
+        // An interior element: its four unknowns are consecutive.
+        addConsecutive(elastic, element.elastic, element.elasticRows, first)
+        addConsecutive(geometric, element.geometric, element.geometricRows, first)
+        addConsecutive(mass, element.mass, element.massRows, first)
+        for (let p = 0; p < 4; p++) influence[first + p] += element.influence[p]
+      } else {
+        add(elastic, element.elastic)
+        add(geometric, element.geometric)
+        add(mass, element.mass)
+        // Sideways support motion: every deflection, held ones included, moves by 1.
+        for (let p = 0; p < 4; p++) if (dofs[p] >= 0) influence[dofs[p]] += element.influence[p]
       }
     }
   }
@@ -448,6 +457,52 @@ function assembleBending(project: Project, plane: BendingPlane, settings: Assemb
   }
 }
 
+
+/** An element's matrices in the scaled unknowns [w, ℓθ], with their row sums, ready to add. */
+interface ScaledBeamElement {
+  readonly elastic: Float64Array
+  readonly geometric: Float64Array
+  readonly mass: Float64Array
+  readonly elasticRows: Float64Array
+  readonly geometricRows: Float64Array
+  readonly massRows: Float64Array
+  /** Per unknown, Σ over the element's deflections of its mass entries: M·(sideways unit motion). */
+  readonly influence: Float64Array
+  readonly shearParameter: number
+}
+
+function scaledBeamElement(matrices: BeamElementMatrices, d: number[]): ScaledBeamElement {
+  const elastic = scaled(matrices.elastic, d)
+  const geometric = scaled(matrices.geometric, d)
+  const mass = scaled(matrices.mass, d)
+  const rows = (a: Float64Array) => Float64Array.from({ length: 4 }, (_, p) => a[4 * p] + a[4 * p + 1] + a[4 * p + 2] + a[4 * p + 3])
+  return {
+    elastic,
+    geometric,
+    mass,
+    elasticRows: rows(elastic),
+    geometricRows: rows(geometric),
+    massRows: rows(mass),
+    influence: Float64Array.from({ length: 4 }, (_, p) => mass[4 * p] + mass[4 * p + 2]),
+    shearParameter: matrices.shearParameter,
+  }
+}
+
+/** Adds a 4 × 4 element matrix whose unknowns are first … first + 3 straight into the bands. */
+function addConsecutive(a: SymmetricBandMatrix, matrix: Float64Array, rowSums: Float64Array, first: number): void {
+  const r = a.rowSums
+  const b1 = a.offDiagonals[0], b2 = a.offDiagonals[1], b3 = a.offDiagonals[2] // prettier-ignore
+  r[first] += rowSums[0]
+  r[first + 1] += rowSums[1]
+  r[first + 2] += rowSums[2]
+  r[first + 3] += rowSums[3]
+  b1[first] += matrix[1]
+  b1[first + 1] += matrix[6]
+  b1[first + 2] += matrix[11]
+  b2[first] += matrix[2]
+  b2[first + 1] += matrix[7]
+  b3[first] += matrix[3]
+}
 
 /** D A D for a 4 × 4 row-major A and diagonal scaling d. */
 function scaled(a: Float64Array, d: number[]): Float64Array {

@@ -12,7 +12,7 @@
  * (Pᵀ K P) keeps the same structure, because P reproduces the rigid motions on every interval,
  * so its forms follow from the fine ones exactly (coarsenBeamForms).
  */
-import { beamDofIndex, type BeamCoarsening, type BeamLayout } from './beam-coarsening'
+import { hermiteRows, prolongationRow, type BeamCoarsening, type BeamLayout } from './beam-coarsening'
 import { createBandMatrix, type SymmetricBandMatrix } from './symmetric-band-matrix'
 
 export interface BeamForms {
@@ -94,67 +94,63 @@ export function beamFormsEnergy(data: BeamForms, x: Float64Array, y: Float64Arra
 export function coarsenBeamForms(fine: BeamForms, map: BeamCoarsening): BeamForms {
   const coarse = map.coarse
   const fx = fine.layout.x
-  const cx = coarse.x
   const lf = fine.layout.rotationScale
   const lc = coarse.rotationScale
-  const intervals = cx.length - 1
+  const { picked } = map
+  const intervals = picked.length - 1
   const forms = new Float64Array(FORM_SIZE * intervals)
-  // Fine node of each coarse node (coarse nodes are fine nodes).
-  let fineNode = 0
+  const S = fine.forms
+  const withPreload = fine.preload !== 0
+  // Hermite rows (hermiteRows) at the current element's two nodes over the coarse [W_A, S_A, W_B, S_B].
+  let left = new Float64Array(8)
+  let right = new Float64Array(8)
+  // Per coarse unknown c: the fine element's strains d₁, d₂ and geometric (s_a, Δw, s_b).
+  const d1 = new Float64Array(4)
+  const d2 = new Float64Array(4)
+  const g1 = new Float64Array(4)
+  const g2 = new Float64Array(4)
+  const g3 = new Float64Array(4)
   for (let I = 0; I < intervals; I++) {
-    while (fx[fineNode] < cx[I]) fineNode++
-    const a = fineNode
-    let b = a
-    while (fx[b] < cx[I + 1]) b++
-    const span = cx[I + 1] - cx[I]
-    // Hermite rows over the coarse interval's [W_A, S_A, W_B, S_B], at fine node i: w and s.
-    const rows = (i: number): [number[], number[]] => {
-      const t = (fx[i] - cx[I]) / span
-      const t2 = t * t
-      const t3 = t2 * t
-      return [
-        [2 * t3 - 3 * t2 + 1, ((t3 - 2 * t2 + t) * span) / lc, -2 * t3 + 3 * t2, ((t3 - t2) * span) / lc],
-        [((6 * t2 - 6 * t) * lf) / span, ((3 * t2 - 4 * t + 1) * lf) / lc, ((-6 * t2 + 6 * t) * lf) / span, ((3 * t2 - 2 * t) * lf) / lc],
-      ]
-    }
+    const a = picked[I]
+    const b = picked[I + 1]
+    const span = fx[b] - fx[a]
     const out = FORM_SIZE * I
-    let [wa, sa] = rows(a)
+    hermiteRows(0, span, lf, lc, left)
     for (let e = a; e < b; e++) {
-      const [wb, sb] = rows(e + 1)
+      hermiteRows(e + 1 === b ? 1 : (fx[e + 1] - fx[a]) / span, span, lf, lc, right)
       const h = fx[e + 1] - fx[e]
       const f = FORM_SIZE * fine.formOfInterval[e]
-      const S = fine.forms
-      // Strains of the fine element per coarse unknown W_B (column 2) and S_B (column 3): the
-      // coarse form is the coarse element's energy with W_A = S_A = 0.
-      for (let c = 2; c < 4; c++) {
-        const d1c = wb[c] - wa[c] - (h * sa[c]) / lf
-        const d2c = sb[c] - sa[c]
-        for (let r = c; r < 4; r++) {
-          const d1r = wb[r] - wa[r] - (h * sa[r]) / lf
-          const d2r = sb[r] - sa[r]
-          const v = S[f] * d1c * d1r + S[f + 1] * (d1c * d2r + d2c * d1r) + S[f + 2] * d2c * d2r
-          // (2,2) → 0, (2,3) → 1, (3,3) → 2
-          forms[out + c + r - 4] += v
-        }
+      const hOverScale = h / lf
+      for (let c = 0; c < 4; c++) {
+        const dw = right[c] - left[c]
+        d1[c] = dw - hOverScale * left[4 + c]
+        d2[c] = right[4 + c] - left[4 + c]
+        g1[c] = left[4 + c]
+        g2[c] = dw
+        g3[c] = right[4 + c]
       }
-      // Geometric: fine (s_a, Δw, s_b) per coarse S_A, W_B, S_B (columns 1, 2, 3), with W_A = 0.
-      const g = (c: number) => [sa[c], wb[c] - wa[c], sb[c]]
-      const slot = [3, 4, 5, 6, 7, 8]
-      let k = 0
-      for (let c = 1; c < 4; c++) {
-        for (let r = c; r < 4; r++) {
-          const gc = g(c)
-          const gr = g(r)
-          let v = 0
-          v += S[f + 3] * gc[0] * gr[0] + S[f + 6] * gc[1] * gr[1] + S[f + 8] * gc[2] * gr[2]
-          v += S[f + 4] * (gc[0] * gr[1] + gc[1] * gr[0]) + S[f + 5] * (gc[0] * gr[2] + gc[2] * gr[0]) + S[f + 7] * (gc[1] * gr[2] + gc[2] * gr[1])
-          forms[out + slot[k++]] += v
-        }
+      // The coarse form is the coarse element's energy with W_A = S_A = 0: elastic entries over
+      // (W_B, S_B), geometric over (S_A, W_B, S_B).
+      const k11 = S[f], k12 = S[f + 1], k22 = S[f + 2] // prettier-ignore
+      const elastic = (c: number, r: number) => k11 * d1[c] * d1[r] + k12 * (d1[c] * d2[r] + d2[c] * d1[r]) + k22 * d2[c] * d2[r]
+      forms[out] += elastic(2, 2)
+      forms[out + 1] += elastic(2, 3)
+      forms[out + 2] += elastic(3, 3)
+      if (withPreload) {
+        const p11 = S[f + 3], p12 = S[f + 4], p13 = S[f + 5], p22 = S[f + 6], p23 = S[f + 7], p33 = S[f + 8] // prettier-ignore
+        const geometric = (c: number, r: number) =>
+          p11 * g1[c] * g1[r] + p22 * g2[c] * g2[r] + p33 * g3[c] * g3[r] + p12 * (g1[c] * g2[r] + g2[c] * g1[r]) + p13 * (g1[c] * g3[r] + g3[c] * g1[r]) + p23 * (g2[c] * g3[r] + g3[c] * g2[r])
+        forms[out + 3] += geometric(1, 1)
+        forms[out + 4] += geometric(1, 2)
+        forms[out + 5] += geometric(1, 3)
+        forms[out + 6] += geometric(2, 2)
+        forms[out + 7] += geometric(2, 3)
+        forms[out + 8] += geometric(3, 3)
       }
-      wa = wb
-      sa = sb
+      const swap = left
+      left = right
+      right = swap
     }
-    fineNode = b
   }
   // Grounded terms: each fine (index, weight) pair spreads over that fine unknown's P row.
   const count = fine.groundedStiffness.length
@@ -165,11 +161,7 @@ export function coarsenBeamForms(fine: BeamForms, map: BeamCoarsening): BeamForm
     for (let p = 4 * gIndex; p < 4 * gIndex + 4; p++) {
       const f = fine.groundedIndex[p]
       if (f < 0) continue
-      for (let q = 4 * f; q < 4 * f + 4; q++) {
-        const c = map.columns[q]
-        if (c < 0) break
-        combined.set(c, (combined.get(c) ?? 0) + fine.groundedWeight[p] * map.weights[q])
-      }
+      for (const { coarse: c, weight } of prolongationRow(map, f)) combined.set(c, (combined.get(c) ?? 0) + fine.groundedWeight[p] * weight)
     }
     let slot = 4 * gIndex
     for (const [c, w] of combined) {
@@ -181,7 +173,7 @@ export function coarsenBeamForms(fine: BeamForms, map: BeamCoarsening): BeamForm
   }
   return {
     layout: coarse,
-    index: beamDofIndex(coarse),
+    index: map.coarseIndex,
     forms,
     formOfInterval: Int32Array.from({ length: intervals }, (_, i) => i),
     preload: fine.preload,
@@ -331,9 +323,10 @@ export function beamFormsGram(data: BeamForms, vectors: readonly Float64Array[])
   const scale = layout.rotationScale
   const m = vectors.length
   const gram = new Float64Array(m * m)
+  if (preload === 0) elasticGram(data, vectors, gram)
   // Per vector: d₁, d₂ (elastic strains) and s_a, Δw, s_b (geometric).
   const strains = new Float64Array(5 * m)
-  for (let e = 0; e + 1 < xs.length; e++) {
+  for (let e = 0; preload !== 0 && e + 1 < xs.length; e++) {
     const h = xs[e + 1] - xs[e]
     const f = FORM_SIZE * formOfInterval[e]
     const ia = 2 * e
@@ -384,4 +377,37 @@ export function beamFormsGram(data: BeamForms, vectors: readonly Float64Array[])
     out.push(row)
   }
   return out
+}
+
+/** The elastic part of beamFormsGram (no preload): two strains per vector and element, added into gram (upper triangle). */
+function elasticGram(data: BeamForms, vectors: readonly Float64Array[], gram: Float64Array): void {
+  const { layout, index, forms, formOfInterval } = data
+  const xs = layout.x
+  const scale = layout.rotationScale
+  const m = vectors.length
+  const first = new Float64Array(m)
+  const second = new Float64Array(m)
+  for (let e = 0; e + 1 < xs.length; e++) {
+    const hOverScale = (xs[e + 1] - xs[e]) / scale
+    const f = FORM_SIZE * formOfInterval[e]
+    const ia = 2 * e
+    const iwa = index[ia], isa = index[ia + 1], iwb = index[ia + 2], isb = index[ia + 3] // prettier-ignore
+    for (let j = 0; j < m; j++) {
+      const v = vectors[j]
+      const sa = isa >= 0 ? v[isa] : 0
+      const sb = isb >= 0 ? v[isb] : 0
+      const dw = (iwb >= 0 ? v[iwb] : 0) - (iwa >= 0 ? v[iwa] : 0)
+      first[j] = dw - hOverScale * sa
+      second[j] = sb - sa
+    }
+    const k11 = forms[f], k12 = forms[f + 1], k22 = forms[f + 2] // prettier-ignore
+    for (let i = 0; i < m; i++) {
+      const x1 = first[i]
+      const x2 = second[i]
+      const g1 = k11 * x1 + k12 * x2
+      const g2 = k12 * x1 + k22 * x2
+      const row = i * m
+      for (let j = i; j < m; j++) gram[row + j] += g1 * first[j] + g2 * second[j]
+    }
+  }
 }

@@ -254,6 +254,18 @@ function coarseningRatio(n: number, modes: number): number {
   return n >= 16 * 16 * minimumCoarseOrder(modes + 1) ? 16 : 4
 }
 
+/**
+ * Coarsening ratio of a beam level: 4, or 16 when the level 16 times coarser would be the last one
+ * (below 4 × minimumCoarseOrder, so solved by slicing) and still has room for the modes (at least
+ * 3 × minimumCoarseOrder): the level in between, whose sweeps cost a quarter of this one's, is then
+ * skipped. The last level has no coarser one, so no mode settles on it (settledPrefix) and the
+ * settling of the finer levels keeps its ratio-4 steps.
+ */
+function beamCoarseningRatio(n: number, modes: number): number {
+  const minimum = minimumCoarseOrder(modes + 1)
+  return n >= 16 * 3 * minimum && n < 16 * 4 * minimum ? 16 : 4
+}
+
 /** Lowest modes of (K, M); see the file comment for the method. */
 export function lowestModes(pencil: BandPencil, options: LowestModesOptions): LowestModes {
   const n = pencil.stiffness.order
@@ -412,7 +424,7 @@ function solveLevel(pencil: BandPencil, modes: number, context: Context, warm?: 
   } else if (layout && n >= 4 * minimumCoarseOrder(total + 1)) {
     // Beams coarsen by 4 at every level: a fine level that can no longer count its lowest modes
     // keeps them from the level below (settledPrefix), whose discretisation error must be small.
-    const ratio = 4
+    const ratio = beamCoarseningRatio(n, total)
     const map = beamCoarsening(layout, ratio)
     const coarsePencil = coarsenBeamLevel(pencil, map)
     const coarse = solveLevel(coarsePencil, total + 1, context, undefined, map.coarse)
@@ -436,7 +448,8 @@ function solveLevel(pencil: BandPencil, modes: number, context: Context, warm?: 
       }
     }
     const skip = settledAbove ? settledCount : 0
-    found = refineStarts(level, Math.min(elastic, coarse.vectors.length) - skip, (j) => prolongateBeam(map, coarse.vectors[skip + j], new Float64Array(n)))
+    const refined = Math.min(elastic, coarse.vectors.length) - skip
+    found = refineStarts(level, refined, (j) => prolongateBeam(map, coarse.vectors[skip + j], new Float64Array(n)), coarseStarts(coarse.values, skip, refined))
     nextEstimate = coarse.values.length > elastic ? coarse.values[elastic] : null
     previousValues = coarse.values
     levelRatio = ratio
@@ -475,16 +488,15 @@ function solveLevel(pencil: BandPencil, modes: number, context: Context, warm?: 
  * time: their Rayleigh quotients in one sweep, then inverse-iteration steps with each mode at
  * its own quotient (up to three passes). A mode the passes do not settle continues alone.
  */
-function refineStarts(level: Level, count: number, makeStart: (index: number) => Float64Array): RefinedMode[] {
+function refineStarts(level: Level, count: number, makeStart: (index: number) => Float64Array, coarse?: CoarseStarts): RefinedMode[] {
   const { pencil, context } = level
   const found: RefinedMode[] = []
   const blockable = pencil.stiffness.halfBandwidth === 1 && level.locked.length === 0
   for (let first = 0; first < count; first += BLOCK_WIDTH) {
     const starts = Array.from({ length: Math.min(BLOCK_WIDTH, count - first) }, (_, b) => makeStart(first + b))
-    const energies = blockEnergies(pencil, starts)
-    const shifts = energies.map((e) => e.xKx / e.xMx)
+    const shifts = coarse ? starts.map((_, b) => coarse.values[first + b]) : blockEnergies(pencil, starts).map((e) => e.xKx / e.xMx)
     if (!blockable) {
-      starts.forEach((x, b) => found.push(refineMode(level, x, shifts[b], null, nearbyVectors(found, shifts[b]), true)))
+      starts.forEach((x, b) => found.push(refineMode(level, x, shifts[b], null, nearbyVectors(found, shifts[b]), true, coarse?.separations[first + b] ?? 0)))
       continue
     }
     const results: (RefinedMode | null)[] = starts.map(() => null)
@@ -516,6 +528,34 @@ function refineStarts(level: Level, count: number, makeStart: (index: number) =>
     results.forEach((r, b) => found.push(r ?? refineMode(level, starts[b], shifts[b], null, nearbyVectors(found, shifts[b]), true)))
   }
   return found
+}
+
+/**
+ * Starts interpolated from a beam's Galerkin coarse level: their quotients on this level are the
+ * coarse values (the coarse pencil is PᵀKP, PᵀMP), and each value's distance to its neighbours
+ * bounds, with a margin, how far the mode is from the others here (for Kato–Temple, refineMode).
+ */
+interface CoarseStarts {
+  readonly values: readonly number[]
+  readonly separations: readonly number[]
+}
+
+/**
+ * Half the distance from coarse value j to the nearest other one (0 below the first: K is
+ * positive semi-definite), for values[from … from + count − 1]; 0 where the next value is unknown.
+ * Coarse values bound this level's from above and lie close to them, so half the coarse gap is a
+ * safe lower bound of the gap here.
+ */
+function coarseStarts(values: readonly number[], from: number, count: number): CoarseStarts {
+  const starts: number[] = []
+  const separations: number[] = []
+  for (let j = from; j < from + count; j++) {
+    const below = j > 0 ? values[j - 1] : 0
+    const above = values[j + 1]
+    starts.push(values[j])
+    separations.push(above === undefined ? 0 : 0.5 * Math.min(values[j] - below, above - values[j]))
+  }
+  return { values: starts, separations }
 }
 
 /** Already-found modes whose eigenvalues lie within 1 % of λ: kept orthogonal to avoid converging twice to one mode. */
@@ -563,7 +603,7 @@ function splitBracket(lower: number, upper: number): number {
  * ratios matter). `near` are found modes (and the level's locked ones) kept M-orthogonal.
  * `startIsQuotient`: the start value is x's own Rayleigh quotient (not a bracket's midpoint).
  */
-function refineMode(level: Level, x: Float64Array, startValue: number, bracket: Bracket | null, near: Float64Array[], startIsQuotient = false): RefinedMode {
+function refineMode(level: Level, x: Float64Array, startValue: number, bracket: Bracket | null, near: Float64Array[], startIsQuotient = false, separation = 0): RefinedMode {
   const { pencil, context } = level
   const tol = context.tolerance
   const keep = [...level.locked, ...near]
@@ -592,6 +632,20 @@ function refineMode(level: Level, x: Float64Array, startValue: number, bracket: 
         bracket.upper = Math.min(bracket.upper, sigma)
         shiftIsAbove = true
       } else bracket.lower = Math.max(bracket.lower, sigma)
+    }
+    // Kato–Temple: when no other eigenvalue lies within `separation` of the step's quotient ρₛ, the
+    // eigenvalue nearest it is within r²/separation, r² = xᵀMx/yᵀMy − (ρₛ − σ)² the squared M⁻¹-norm
+    // residual of y at ρₛ (as (K − σM)y = Mx; T. Kato, J. Phys. Soc. Japan 4 (1949), from memory).
+    // Then ρₛ is the value, and orthogonalising y to locked modes can only lower its error.
+    if (!bracket && separation > 0 && pencil.beamForms && step.yMy > 0 && Number.isFinite(step.rayleigh)) {
+      const residual2 = step.xMx / step.yMy - (step.rayleigh - sigma) ** 2
+      if (residual2 <= STALLED_QUOTIENT * Math.abs(step.rayleigh) * separation) {
+        if (keep.length) orthogonalise(level, x, keep, keepM)
+        value = step.rayleigh
+        converged = true
+        largest = NaN
+        break
+      }
     }
     let rho = step.rayleigh
     massNorm2 = step.yMy
@@ -771,12 +825,14 @@ function verifyAndRepair(
   const finalVectors = indices.map((i) => accepted.get(i)!.vector)
   const converged = indices.every((i, j) => accepted.get(i)!.converged && (j === 0 || finalValues[j] > finalValues[j - 1]))
   refineClusters(level, finalValues, finalVectors)
-  const sturm =
-    floor.shift > 0
+  // The counts already taken still vouch for the modes when nothing was redone and the Ritz values
+  // stayed strictly inside the intervals counted.
+  const reusable = redo.length === 0 && m === elastic && finalValues.every((v, i) => v > bounds[i] && v < bounds[i + 1])
+  const sturm = reusable
+    ? sturmCheckFromCounts(bounds, counts, rigidBodyModes, floor.shift > 0)
+    : floor.shift > 0
       ? checkAboveFloor(pencil, floor.shift, rigidBodyModes, finalValues, top)
-      : redo.length === 0 && m === elastic
-        ? sturmCheckFromCounts(bounds, counts, rigidBodyModes)
-        : checkLowestEigenvalues(pencil, [...new Array<number>(rigidBodyModes).fill(0), ...finalValues], top)
+      : checkLowestEigenvalues(pencil, [...new Array<number>(rigidBodyModes).fill(0), ...finalValues], top)
   return { values: finalValues, vectors: finalVectors, sturm, converged }
 }
 
@@ -801,33 +857,75 @@ function refineClusters(level: Level, values: number[], vectors: Float64Array[])
     if (last > first) {
       const members = vectors.slice(first, last + 1)
       const stiffnessGram = pencil.beamForms ? beamFormsGram(pencil.beamForms, members) : members.map((u) => members.map((v) => stiffnessForm(pencil, u, v)))
-      const massTimes = members.map((v) => multiplyBand(pencil.mass, v, new Float64Array(level.order)))
-      const massGram = members.map((u, i) => members.map((v, j) => 0.5 * (dot(u, massTimes[j]) + dot(v, massTimes[i]))))
       let ritz: ReturnType<typeof smallGeneralizedEigen>
       try {
-        ritz = smallGeneralizedEigen(stiffnessGram, massGram)
+        ritz = smallGeneralizedEigen(stiffnessGram, symmetricMassGram(level, members))
       } catch {
         // Dependent vectors (the same mode found twice) cannot be separated by projection;
         // the Sturm check that follows judges them.
         first = last + 1
         continue
       }
-      const combined = ritz.vectors.map((coefficients) => {
-        const out = new Float64Array(level.order)
-        for (let j = 0; j < coefficients.length; j++) {
-          const c = coefficients[j]
-          const v = members[j]
-          for (let i = 0; i < out.length; i++) out[i] += c * v[i]
-        }
-        return out
-      })
-      combined.forEach((v, j) => {
+      combineInPlace(members, ritz.vectors)
+      members.forEach((v, j) => {
         values[first + j] = ritz.values[j]
-        vectors[first + j] = v
         context.vectorInfo.delete(v)
       })
     }
     first = last + 1
+  }
+}
+
+/** G_ij = v_iᵀ M v_j, each pair once (G is symmetric by construction). */
+function symmetricMassGram(level: Level, vectors: readonly Float64Array[]): number[][] {
+  const m = vectors.length
+  const gram = Array.from({ length: m }, () => new Array<number>(m).fill(0))
+  const product = level.scratch.length === level.order ? level.scratch : new Float64Array(level.order)
+  for (let j = 0; j < m; j++) {
+    multiplyBand(level.pencil.mass, vectors[j], product)
+    for (let i = 0; i <= j; i++) {
+      const g = dot(vectors[i], product)
+      gram[i][j] = g
+      gram[j][i] = g
+    }
+  }
+  return gram
+}
+
+/**
+ * vectors[j] ← Σ_c coefficients[j][c] · vectors[c] for all j at once, row by row (each row's old
+ * values read before any is written), so no vector is allocated and each is swept once.
+ */
+function combineInPlace(vectors: Float64Array[], coefficients: readonly ArrayLike<number>[]): void {
+  const m = vectors.length
+  const flat = new Float64Array(m * m)
+  coefficients.forEach((row, j) => {
+    for (let c = 0; c < m; c++) flat[j * m + c] = row[c]
+  })
+  const old = new Float64Array(m)
+  const n = vectors[0].length
+  for (let i = 0; i < n; i++) {
+    for (let c = 0; c < m; c++) old[c] = vectors[c][i]
+    // Two outputs per pass over the row's old values.
+    let j = 0
+    for (; j + 1 < m; j += 2) {
+      let first = 0
+      let second = 0
+      const a = j * m
+      const b = a + m
+      for (let c = 0; c < m; c++) {
+        const v = old[c]
+        first += flat[a + c] * v
+        second += flat[b + c] * v
+      }
+      vectors[j][i] = first
+      vectors[j + 1][i] = second
+    }
+    if (j < m) {
+      let sum = 0
+      for (let c = 0; c < m; c++) sum += flat[j * m + c] * old[c]
+      vectors[j][i] = sum
+    }
   }
 }
 
@@ -844,12 +942,15 @@ function checkAboveFloor(pencil: BandPencil, floorShift: number, below: number, 
   return { shifts, counts, expected, passed: counts.every((c, i) => c === expected[i]) }
 }
 
-/** The check already made on the accepted modes: counts at the midpoints and the top shift. */
-function sturmCheckFromCounts(bounds: number[], counts: number[], rigidBodyModes: number): SturmCheck {
-  // bounds[0] = 0 was not counted; with a rigid mode the first midpoint counts it.
-  const shifts = bounds.slice(1)
-  const measured = counts.slice(1)
-  const expected = shifts.map((_, i) => rigidBodyModes + i + 1)
+/**
+ * The check already made on the accepted modes: counts at the midpoints and the top shift, and at
+ * the floor shift when modes below it were settled (`withFloor`; bounds[0] = 0 otherwise, not counted).
+ */
+function sturmCheckFromCounts(bounds: number[], counts: number[], below: number, withFloor: boolean): SturmCheck {
+  const first = withFloor ? 0 : 1
+  const shifts = bounds.slice(first)
+  const measured = counts.slice(first)
+  const expected = shifts.map((_, i) => below + i + (withFloor ? 0 : 1))
   return { shifts, counts: measured, expected, passed: measured.every((c, i) => c === expected[i]) }
 }
 

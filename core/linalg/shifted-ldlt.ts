@@ -181,10 +181,41 @@ function factorBanded(pencil: BandPencil, shift: number, f: ShiftedFactorization
 }
 
 /**
+ * Per row of K and of M, the sum of |off-diagonal entries| (left and right of the diagonal), for
+ * the tiny-pivot test of factorBandThree: |K_ij − σM_ij| ≤ |K_ij| + |σ||M_ij| bounds the shifted
+ * couplings without forming them in the sweep. Computed once per pencil.
+ */
+const couplingCache = new WeakMap<BandPencil, { stiffness: Float64Array; mass: Float64Array }>()
+
+function rowCouplings(pencil: BandPencil): { stiffness: Float64Array; mass: Float64Array } {
+  let sums = couplingCache.get(pencil)
+  if (!sums) {
+    const of = (a: SymmetricBandMatrix): Float64Array => {
+      const n = a.order
+      const out = new Float64Array(n)
+      for (let d = 1; d <= a.halfBandwidth; d++) {
+        const band = a.offDiagonals[d - 1]
+        for (let i = 0; i + d < n; i++) {
+          const v = Math.abs(band[i])
+          out[i] += v
+          out[i + d] += v
+        }
+      }
+      return out
+    }
+    sums = { stiffness: of(pencil.stiffness), mass: of(pencil.mass) }
+    couplingCache.set(pencil, sums)
+  }
+  return sums
+}
+
+/**
  * The elimination of factorBanded written out for half-bandwidth 3 (a beam's two unknowns per
  * node), with the rows it updates held in local variables: pivot p changes only rows p + 1 …
- * p + 3. Without `f` only the Sturm count is wanted and nothing is written; with it, the test of
- * hasTinyInteriorPivot is made in the same sweep (f.tinyInteriorPivot).
+ * p + 3. Without `f` only the Sturm count is wanted and nothing is written; with it, a pivot
+ * below 1e-12 of its row's couplings (bounded through rowCouplings) is flagged in the same sweep
+ * (f.tinyInteriorPivot; see hasTinyInteriorPivot). Rows entering the window are read without
+ * bounds tests until the window reaches the end (band entries past the end are 0).
  */
 function factorBandThree(pencil: BandPencil, shift: number, f: ShiftedFactorization | null): number {
   const { stiffness: k, mass: m } = pencil
@@ -194,11 +225,14 @@ function factorBandThree(pencil: BandPencil, shift: number, f: ShiftedFactorizat
   const m1 = m.offDiagonals[0], m2 = m.offDiagonals[1], m3 = m.offDiagonals[2] // prettier-ignore
   const kr = k.rowSums
   const mr = m.rowSums
-  const pivots = f?.pivots
-  const l1s = f?.multipliers[0], l2s = f?.multipliers[1], l3s = f?.multipliers[2] // prettier-ignore
+  // Without f the stores below are never reached; the arrays only keep the types monomorphic.
+  const pivots = f ? f.pivots : kr
+  const l1s = f ? f.multipliers[0] : kr, l2s = f ? f.multipliers[1] : kr, l3s = f ? f.multipliers[2] : kr // prettier-ignore
+  const couplings = store ? rowCouplings(pencil) : null
+  const ck = couplings ? couplings.stiffness : kr
+  const cm = couplings ? couplings.mass : kr
+  const absShift = Math.abs(shift)
   const floor = pivotFloor(pencil, shift)
-  // |A| of the unfactored couplings of earlier rows with the current one: A[p−1][p], A[p−2][p], A[p−3][p].
-  let left1 = 0, left2a = 0, left2b = 0, left3a = 0, left3b = 0, left3c = 0 // prettier-ignore
   let tiny = false
   const at = (kb: Float64Array, mb: Float64Array, i: number) => (i < n ? kb[i] - shift * mb[i] : 0)
   // Row p's row sum and upper entries, then rows p + 1 … p + 3 as far as they are updated.
@@ -207,6 +241,7 @@ function factorBandThree(pencil: BandPencil, shift: number, f: ShiftedFactorizat
   let a12 = at(k1, m1, 1), a13 = at(k2, m2, 1) // prettier-ignore
   let a23 = at(k1, m1, 2)
   let negative = 0
+  const bulk = n - 4
   for (let p = 0; p < n; p++) {
     let pivot = r0 - a01 - a02 - a03
     if (!(Math.abs(pivot) >= floor)) pivot = -floor
@@ -215,38 +250,31 @@ function factorBandThree(pencil: BandPencil, shift: number, f: ShiftedFactorizat
     const l2 = a02 / pivot
     const l3 = a03 / pivot
     if (store) {
-      ;(pivots as Float64Array)[p] = pivot
-      ;(l1s as Float64Array)[p] = l1
-      ;(l2s as Float64Array)[p] = l2
-      ;(l3s as Float64Array)[p] = l3
-      const o1 = p + 1 < n ? Math.abs(k1[p] - shift * m1[p]) : 0
-      const o2 = p + 2 < n ? Math.abs(k2[p] - shift * m2[p]) : 0
-      const o3 = p + 3 < n ? Math.abs(k3[p] - shift * m3[p]) : 0
-      if (p + 1 < n && Math.abs(pivot) < 1e-12 * (o1 + o2 + o3 + left1 + left2b + left3c)) tiny = true
-      left3c = left3b
-      left3b = left3a
-      left3a = o3
-      left2b = left2a
-      left2a = o2
-      left1 = o1
+      pivots[p] = pivot
+      l1s[p] = l1
+      l2s[p] = l2
+      l3s[p] = l3
+      if (Math.abs(pivot) < 1e-12 * (ck[p] + absShift * cm[p]) && p + 1 < n) tiny = true
     }
-    r1 -= l1 * r0
-    a12 -= l1 * a02
-    a13 -= l1 * a03
-    r2 -= l2 * r0
-    a23 -= l2 * a03
-    r3 -= l3 * r0
-    // Slide the window by one row.
-    r0 = r1
-    a01 = a12
-    a02 = a13
-    a03 = p + 4 < n ? k3[p + 1] - shift * m3[p + 1] : 0
-    r1 = r2
-    a12 = a23
-    a13 = p + 4 < n ? k2[p + 2] - shift * m2[p + 2] : 0
-    r2 = r3
-    a23 = p + 4 < n ? k1[p + 3] - shift * m1[p + 3] : 0
-    r3 = p + 4 < n ? kr[p + 4] - shift * mr[p + 4] : 0
+    // Eliminate, and slide the window down by one row.
+    const eliminated = r0
+    r0 = r1 - l1 * eliminated
+    a01 = a12 - l1 * a02
+    a02 = a13 - l1 * a03
+    r1 = r2 - l2 * eliminated
+    a12 = a23 - l2 * a03
+    r2 = r3 - l3 * eliminated
+    if (p < bulk) {
+      a03 = k3[p + 1] - shift * m3[p + 1]
+      a13 = k2[p + 2] - shift * m2[p + 2]
+      a23 = k1[p + 3] - shift * m1[p + 3]
+      r3 = kr[p + 4] - shift * mr[p + 4]
+    } else {
+      a03 = 0
+      a13 = 0
+      a23 = 0
+      r3 = 0
+    }
   }
   if (f) f.tinyInteriorPivot = tiny
   return negative

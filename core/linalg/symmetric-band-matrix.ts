@@ -55,6 +55,7 @@ export function addOffDiagonal(a: SymmetricBandMatrix, i: number, j: number, v: 
  */
 export function multiplyBand(a: SymmetricBandMatrix, x: Float64Array, y: Float64Array): Float64Array {
   const n = a.order
+  if (a.halfBandwidth === 3 && n > 3) return multiplyBandThree(a, x, y)
   const r = a.rowSums
   for (let i = 0; i < n; i++) y[i] = r[i] * x[i]
   for (let d = 1; d <= a.halfBandwidth; d++) {
@@ -70,9 +71,55 @@ export function multiplyBand(a: SymmetricBandMatrix, x: Float64Array, y: Float64
   return y
 }
 
+/**
+ * multiplyBand for half-bandwidth 3 (a beam's pencil) in one sweep: row i's terms to the right
+ * are added at once, and what its couplings owe rows i + 1 … i + 3 is carried in local variables.
+ */
+function multiplyBandThree(a: SymmetricBandMatrix, x: Float64Array, y: Float64Array): Float64Array {
+  const n = a.order
+  const r = a.rowSums
+  const b1 = a.offDiagonals[0], b2 = a.offDiagonals[1], b3 = a.offDiagonals[2] // prettier-ignore
+  // carry1…carry3: the sums already owed to rows i + 1, i + 2, i + 3 by rows above them.
+  let carry1 = 0, carry2 = 0, carry3 = 0 // prettier-ignore
+  let i = 0
+  for (; i + 3 < n; i++) {
+    const xi = x[i]
+    const d1 = x[i + 1] - xi
+    const d2 = x[i + 2] - xi
+    const d3 = x[i + 3] - xi
+    const t1 = b1[i] * d1
+    const t2 = b2[i] * d2
+    const t3 = b3[i] * d3
+    y[i] = carry1 + r[i] * xi + t1 + t2 + t3
+    carry1 = carry2 - t1
+    carry2 = carry3 - t2
+    carry3 = -t3
+  }
+  // The last three rows: couplings past the end are absent.
+  for (; i < n; i++) {
+    const xi = x[i]
+    let sum = carry1 + r[i] * xi
+    let t1 = 0, t2 = 0 // prettier-ignore
+    if (i + 1 < n) {
+      t1 = b1[i] * (x[i + 1] - xi)
+      sum += t1
+    }
+    if (i + 2 < n) {
+      t2 = b2[i] * (x[i + 2] - xi)
+      sum += t2
+    }
+    y[i] = sum
+    carry1 = carry2 - t1
+    carry2 = carry3 - t2
+    carry3 = 0
+  }
+  return y
+}
+
 /** xᵀ A x = Σ r_i x_i² − Σ_{i<j} A_ij (x_j − x_i)²: the discrete energy, without cancellation for smooth x. */
 export function quadraticForm(a: SymmetricBandMatrix, x: Float64Array): number {
   const n = a.order
+  if (a.halfBandwidth === 3 && n > 3) return quadraticFormThree(a, x)
   const r = a.rowSums
   let s = 0
   for (let i = 0; i < n; i++) s += r[i] * x[i] * x[i]
@@ -82,6 +129,29 @@ export function quadraticForm(a: SymmetricBandMatrix, x: Float64Array): number {
       const diff = x[i + d] - x[i]
       s -= band[i] * diff * diff
     }
+  }
+  return s
+}
+
+/** quadraticForm for half-bandwidth 3 in one sweep over the rows. */
+function quadraticFormThree(a: SymmetricBandMatrix, x: Float64Array): number {
+  const n = a.order
+  const r = a.rowSums
+  const b1 = a.offDiagonals[0], b2 = a.offDiagonals[1], b3 = a.offDiagonals[2] // prettier-ignore
+  let s = 0
+  let i = 0
+  for (; i + 3 < n; i++) {
+    const xi = x[i]
+    const d1 = x[i + 1] - xi
+    const d2 = x[i + 2] - xi
+    const d3 = x[i + 3] - xi
+    s += r[i] * xi * xi - b1[i] * d1 * d1 - b2[i] * d2 * d2 - b3[i] * d3 * d3
+  }
+  for (; i < n; i++) {
+    const xi = x[i]
+    s += r[i] * xi * xi
+    if (i + 1 < n) s -= b1[i] * (x[i + 1] - xi) ** 2
+    if (i + 2 < n) s -= b2[i] * (x[i + 2] - xi) ** 2
   }
   return s
 }
