@@ -405,14 +405,17 @@ function assembleBending(project: Project, plane: BendingPlane, settings: Assemb
     if (s >= 0 && (sp.rotationalStiffness ?? 0) > 0) elastic.rowSums[s] += (sp.rotationalStiffness as number) / (scale * scale)
   })
   const preload = project.preload ?? 0
-  const stiffness = createBandMatrix(n, elastic.halfBandwidth)
-  for (let b = 0; b < elastic.halfBandwidth; b++) {
-    const out = stiffness.offDiagonals[b]
-    const e = elastic.offDiagonals[b]
-    const g = geometric.offDiagonals[b]
-    for (let i = 0; i < n; i++) out[i] = e[i] + preload * g[i]
+  // Without preload K is the elastic matrix itself (nothing writes to either afterwards).
+  const stiffness = preload === 0 ? elastic : createBandMatrix(n, elastic.halfBandwidth)
+  if (preload !== 0) {
+    for (let b = 0; b < elastic.halfBandwidth; b++) {
+      const out = stiffness.offDiagonals[b]
+      const e = elastic.offDiagonals[b]
+      const g = geometric.offDiagonals[b]
+      for (let i = 0; i < n; i++) out[i] = e[i] + preload * g[i]
+    }
+    for (let i = 0; i < n; i++) stiffness.rowSums[i] = elastic.rowSums[i] + preload * geometric.rowSums[i]
   }
-  for (let i = 0; i < n; i++) stiffness.rowSums[i] = elastic.rowSums[i] + preload * geometric.rowSums[i]
   const dofNodes = new Int32Array(n)
   const dofKinds = new Uint8Array(n)
   for (let node = 0; node < nodes; node++) {

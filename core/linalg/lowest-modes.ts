@@ -709,13 +709,15 @@ class SpectrumSlicer {
   }
 
   count(shift: number): number {
-    const f = factorShifted(this.level.pencil, shift, factorizationOf(this.level))
+    // A beam's count needs no stored factorisation (sturmCounts runs the count-only sweep there).
+    const { pencil } = this.level
+    const count = pencil.stiffness.halfBandwidth === 3 ? sturmCounts(pencil, [shift])[0] : factorShifted(pencil, shift, factorizationOf(this.level)).negativePivots
     this.level.context.factorizations++
     let i = 0
     while (i < this.shifts.length && this.shifts[i] < shift) i++
     this.shifts.splice(i, 0, shift)
-    this.counts.splice(i, 0, f.negativePivots)
-    return f.negativePivots
+    this.counts.splice(i, 0, count)
+    return count
   }
 
   /** Tightest bracket of the index-th eigenvalue among the samples taken so far. */
@@ -866,10 +868,11 @@ function refineClusters(level: Level, values: number[], vectors: Float64Array[])
         first = last + 1
         continue
       }
-      combineInPlace(members, ritz.vectors)
+      const largest = combineInPlace(members, ritz.vectors)
+      // The Ritz vectors are unit in the mass Gram (xᵀ G x = 1), so M-normalised up to its round-off.
       members.forEach((v, j) => {
         values[first + j] = ritz.values[j]
-        context.vectorInfo.delete(v)
+        context.vectorInfo.set(v, { massNorm2: 1, largest: largest[j] })
       })
     }
     first = last + 1
@@ -894,15 +897,17 @@ function symmetricMassGram(level: Level, vectors: readonly Float64Array[]): numb
 
 /**
  * vectors[j] ← Σ_c coefficients[j][c] · vectors[c] for all j at once, row by row (each row's old
- * values read before any is written), so no vector is allocated and each is swept once.
+ * values read before any is written), so no vector is allocated and each is swept once. Returns
+ * each new vector's entry largest in magnitude, with its sign.
  */
-function combineInPlace(vectors: Float64Array[], coefficients: readonly ArrayLike<number>[]): void {
+function combineInPlace(vectors: Float64Array[], coefficients: readonly ArrayLike<number>[]): Float64Array {
   const m = vectors.length
   const flat = new Float64Array(m * m)
   coefficients.forEach((row, j) => {
     for (let c = 0; c < m; c++) flat[j * m + c] = row[c]
   })
   const old = new Float64Array(m)
+  const largest = new Float64Array(m)
   const n = vectors[0].length
   for (let i = 0; i < n; i++) {
     for (let c = 0; c < m; c++) old[c] = vectors[c][i]
@@ -920,13 +925,17 @@ function combineInPlace(vectors: Float64Array[], coefficients: readonly ArrayLik
       }
       vectors[j][i] = first
       vectors[j + 1][i] = second
+      if (Math.abs(first) > Math.abs(largest[j])) largest[j] = first
+      if (Math.abs(second) > Math.abs(largest[j + 1])) largest[j + 1] = second
     }
     if (j < m) {
       let sum = 0
       for (let c = 0; c < m; c++) sum += flat[j * m + c] * old[c]
       vectors[j][i] = sum
+      if (Math.abs(sum) > Math.abs(largest[j])) largest[j] = sum
     }
   }
+  return largest
 }
 
 /**

@@ -280,6 +280,76 @@ function factorBandThree(pencil: BandPencil, shift: number, f: ShiftedFactorizat
   return negative
 }
 
+/**
+ * Sturm counts at two shifts in one sweep for half-bandwidth 3: factorBandThree's elimination for
+ * both, interleaved, so that the two recurrences (each limited by its division) overlap in the
+ * processor and K and M are read once.
+ */
+function countBandThreePair(pencil: BandPencil, s: number, t: number): [number, number] {
+  const { stiffness: k, mass: m } = pencil
+  const n = k.order
+  const k1 = k.offDiagonals[0], k2 = k.offDiagonals[1], k3 = k.offDiagonals[2] // prettier-ignore
+  const m1 = m.offDiagonals[0], m2 = m.offDiagonals[1], m3 = m.offDiagonals[2] // prettier-ignore
+  const kr = k.rowSums
+  const mr = m.rowSums
+  const floorS = pivotFloor(pencil, s)
+  const floorT = pivotFloor(pencil, t)
+  const at = (kb: Float64Array, mb: Float64Array, i: number, shift: number) => (i < n ? kb[i] - shift * mb[i] : 0)
+  // Lane S and lane T: the window of factorBandThree each.
+  let r0 = at(kr, mr, 0, s), r1 = at(kr, mr, 1, s), r2 = at(kr, mr, 2, s), r3 = at(kr, mr, 3, s) // prettier-ignore
+  let a01 = at(k1, m1, 0, s), a02 = at(k2, m2, 0, s), a03 = at(k3, m3, 0, s), a12 = at(k1, m1, 1, s), a13 = at(k2, m2, 1, s), a23 = at(k1, m1, 2, s) // prettier-ignore
+  let q0 = at(kr, mr, 0, t), q1 = at(kr, mr, 1, t), q2 = at(kr, mr, 2, t), q3 = at(kr, mr, 3, t) // prettier-ignore
+  let b01 = at(k1, m1, 0, t), b02 = at(k2, m2, 0, t), b03 = at(k3, m3, 0, t), b12 = at(k1, m1, 1, t), b13 = at(k2, m2, 1, t), b23 = at(k1, m1, 2, t) // prettier-ignore
+  let negativeS = 0
+  let negativeT = 0
+  const bulk = n - 4
+  for (let p = 0; p < n; p++) {
+    let pivotS = r0 - a01 - a02 - a03
+    let pivotT = q0 - b01 - b02 - b03
+    if (!(Math.abs(pivotS) >= floorS)) pivotS = -floorS
+    if (!(Math.abs(pivotT) >= floorT)) pivotT = -floorT
+    if (pivotS < 0) negativeS++
+    if (pivotT < 0) negativeT++
+    const l1 = a01 / pivotS, l2 = a02 / pivotS, l3 = a03 / pivotS // prettier-ignore
+    const h1 = b01 / pivotT, h2 = b02 / pivotT, h3 = b03 / pivotT // prettier-ignore
+    const eliminatedS = r0
+    const eliminatedT = q0
+    r0 = r1 - l1 * eliminatedS
+    a01 = a12 - l1 * a02
+    a02 = a13 - l1 * a03
+    r1 = r2 - l2 * eliminatedS
+    a12 = a23 - l2 * a03
+    r2 = r3 - l3 * eliminatedS
+    q0 = q1 - h1 * eliminatedT
+    b01 = b12 - h1 * b02
+    b02 = b13 - h1 * b03
+    q1 = q2 - h2 * eliminatedT
+    b12 = b23 - h2 * b03
+    q2 = q3 - h3 * eliminatedT
+    if (p < bulk) {
+      const k3n = k3[p + 1], m3n = m3[p + 1], k2n = k2[p + 2], m2n = m2[p + 2], k1n = k1[p + 3], m1n = m1[p + 3], krn = kr[p + 4], mrn = mr[p + 4] // prettier-ignore
+      a03 = k3n - s * m3n
+      a13 = k2n - s * m2n
+      a23 = k1n - s * m1n
+      r3 = krn - s * mrn
+      b03 = k3n - t * m3n
+      b13 = k2n - t * m2n
+      b23 = k1n - t * m1n
+      q3 = krn - t * mrn
+    } else {
+      a03 = 0
+      a13 = 0
+      a23 = 0
+      r3 = 0
+      b03 = 0
+      b13 = 0
+      b23 = 0
+      q3 = 0
+    }
+  }
+  return [negativeS, negativeT]
+}
+
 /** Solves (K − σM) x = y with a factorisation from factorShifted; x may alias y. */
 export function solveFactored(f: ShiftedFactorization, y: Float64Array, x: Float64Array): Float64Array {
   const n = f.order
@@ -346,7 +416,9 @@ export function sturmCounts(pencil: BandPencil, shifts: ArrayLike<number>): numb
   if (s === 0) return []
   const out: number[] = []
   if (pencil.stiffness.halfBandwidth === 3) {
-    for (let i = 0; i < s; i++) out.push(factorBandThree(pencil, shifts[i], null))
+    let i = 0
+    for (; i + 1 < s; i += 2) out.push(...countBandThreePair(pencil, shifts[i], shifts[i + 1]))
+    if (i < s) out.push(factorBandThree(pencil, shifts[i], null))
     return out
   }
   if (pencil.stiffness.halfBandwidth !== 1) {
