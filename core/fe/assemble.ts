@@ -300,6 +300,8 @@ function assembleBending(project: Project, plane: BendingPlane, settings: Assemb
     startKept: keptAtEnd(project.ends.start.bending),
     endKept: keptAtEnd(project.ends.end.bending),
     rigidMotions: freeRigidMotions(project),
+    // Every piece boundary: segment joints and the nodes of point masses and springs.
+    anchors: Int32Array.from(mesh.pieces.slice(1), (piece) => piece.firstElement),
   }
   const index = beamDofIndex(layout)
   const n = beamUnknowns(layout)

@@ -24,6 +24,13 @@ export interface BeamLayout {
   readonly endKept: readonly [boolean, boolean]
   /** Rigid-body motions w = a + b·x, θ = b the supports leave free (0, 1 or 2). */
   readonly rigidMotions: readonly { readonly a: number; readonly b: number }[]
+  /**
+   * Nodes every coarser level keeps, increasing (segment joints, point masses, springs): a point
+   * feature inside a coarse interval would be seen through the interpolation, and the coarse
+   * level would no longer be the finite-element model of its own mesh, whose eigenvalues converge
+   * as h⁴ (what settling a mode on a coarse level rests on). The ends are always kept.
+   */
+  readonly anchors?: Int32Array
 }
 
 /** Unknown index of node i's deflection (kind 0) or rotation (kind 1), −1 where removed. */
@@ -57,12 +64,24 @@ export interface BeamCoarsening {
   readonly coarseIndex: Int32Array
 }
 
-/** Coarse nodes every `ratio`-th node, the first and last always kept (a short last interval merges into the previous). */
+/**
+ * Coarse nodes every `ratio`-th node from each anchor to the next (the ends and the layout's
+ * anchors always kept; a run's short last interval merges into the one before it).
+ */
 export function beamCoarsening(fine: BeamLayout, ratio: number): BeamCoarsening {
   const nodes = fine.x.length
+  const stops = [0, ...Array.from(fine.anchors ?? []).filter((i) => i > 0 && i < nodes - 1), nodes - 1]
   const picks: number[] = []
-  for (let i = 0; i < nodes - 1; i += ratio) picks.push(i)
-  if (picks.length > 1 && nodes - 1 - picks[picks.length - 1] < 2 && ratio >= 2) picks.pop()
+  const coarseAnchors: number[] = []
+  for (let run = 0; run + 1 < stops.length; run++) {
+    const from = stops[run]
+    const to = stops[run + 1]
+    if (to <= from) continue
+    if (run > 0) coarseAnchors.push(picks.length)
+    const first = picks.length
+    for (let i = from; i < to; i += ratio) picks.push(i)
+    if (picks.length - first > 1 && to - picks[picks.length - 1] < 2 && ratio >= 2) picks.pop()
+  }
   picks.push(nodes - 1)
   const picked = Int32Array.from(picks)
   const coarse: BeamLayout = {
@@ -71,6 +90,7 @@ export function beamCoarsening(fine: BeamLayout, ratio: number): BeamCoarsening 
     startKept: fine.startKept,
     endKept: fine.endKept,
     rigidMotions: fine.rigidMotions,
+    ...(fine.anchors ? { anchors: Int32Array.from(coarseAnchors) } : {}),
   }
   return { fine, coarse, fineOrder: beamUnknowns(fine), coarseOrder: beamUnknowns(coarse), picked, fineIndex: beamDofIndex(fine), coarseIndex: beamDofIndex(coarse) }
 }
