@@ -27,37 +27,26 @@ import { tmpdir } from 'node:os'
 import { dirname, join } from 'node:path'
 import { fileURLToPath } from 'node:url'
 import { pathToFileURL } from 'node:url'
-import { build } from 'vite'
+import { build, mergeConfig, type UserConfig } from 'vite'
 import type * as Engine from './bending-engine'
 import type { Project } from '../core/model/project'
 import type { SymmetricBandMatrix } from '../core/linalg/symmetric-band-matrix'
 
 const here = dirname(fileURLToPath(import.meta.url))
 
-/** The engine as it ships: bench/bending-engine.ts bundled and minified by Vite for Node. */
+/** The engine as it ships: bench/bending-engine.ts bundled and minified with the command line's own Vite settings. */
 async function loadProductionEngine(): Promise<{ engine: typeof Engine; folder: string }> {
   const folder = mkdtempSync(join(tmpdir(), 'rodwave-bench-engine-'))
-  await build({
-    configFile: false,
-    root: join(here, '..'),
-    publicDir: false,
-    logLevel: 'warn',
-    ssr: { noExternal: true, target: 'node' },
-    build: {
-      ssr: join(here, 'bending-engine.ts'),
-      outDir: folder,
-      emptyOutDir: true,
-      target: 'node20',
-      minify: true,
-      sourcemap: false,
-      copyPublicDir: false,
-      reportCompressedSize: false,
-      rollupOptions: { output: { format: 'es', entryFileNames: 'engine.mjs' } },
-    },
-  })
+  const { default: commandLine } = await import('../bin/vite.config')
+  await build(
+    mergeConfig(commandLine as UserConfig, {
+      configFile: false,
+      build: { ssr: join(here, 'bending-engine.ts'), outDir: folder, rollupOptions: { output: { entryFileNames: 'engine.mjs' } } },
+    }),
+  )
   writeFileSync(
     join(folder, 'time.mjs'),
-    "import { timeDocument } from './engine.mjs'\nconst { document, warmups, runs } = JSON.parse(process.argv[2])\nprocess.stdout.write(JSON.stringify(timeDocument(document, warmups, runs)))\n",
+    "import { timeDocument } from './engine.mjs'\nconst { document, warmups, runs, withReference } = JSON.parse(process.argv[2])\nprocess.stdout.write(JSON.stringify(timeDocument(document, warmups, runs, withReference)))\n",
   )
   const engine = (await import(pathToFileURL(join(folder, 'engine.mjs')).href)) as typeof Engine
   return { engine, folder }
@@ -125,19 +114,22 @@ interface Timed {
   readonly runs: number
   readonly frequenciesHz: number[]
   readonly sturmPassed: boolean
+  /** The fixed reference loop timed between the runs (bending-engine.ts), when asked for. */
+  readonly reference?: { readonly bestMs: number; readonly medianMs: number }
 }
 
 /**
  * Times the bundled engine in a fresh Node process (bench/bending-engine.ts, timeDocument): the
  * bench's own process holds Vite and the compiler, whose heap slowed the same code by a third.
  */
-function timeBeam(elements: number, warmups: number, runs: number): Timed {
-  const out = execFileSync(process.execPath, [join(engineFolder, 'time.mjs'), JSON.stringify({ document: beamDocument(elements), warmups, runs })], {
+function timeBeam(elements: number, warmups: number, runs: number, withReference = false): Timed {
+  const out = execFileSync(process.execPath, [join(engineFolder, 'time.mjs'), JSON.stringify({ document: beamDocument(elements), warmups, runs, withReference })], {
     encoding: 'utf8',
     maxBuffer: 16 * 1024 * 1024,
   })
-  const timed = JSON.parse(out) as { times: number[]; frequenciesHz: number[]; sturmPassed: boolean }
-  return { bestMs: Math.min(...timed.times), medianMs: median(timed.times), runs, frequenciesHz: timed.frequenciesHz, sturmPassed: timed.sturmPassed }
+  const timed = JSON.parse(out) as { times: number[]; referenceTimes: number[]; frequenciesHz: number[]; sturmPassed: boolean }
+  const reference = timed.referenceTimes.length ? { bestMs: Math.min(...timed.referenceTimes), medianMs: median(timed.referenceTimes) } : undefined
+  return { bestMs: Math.min(...timed.times), medianMs: median(timed.times), runs, frequenciesHz: timed.frequenciesHz, sturmPassed: timed.sturmPassed, ...(reference ? { reference } : {}) }
 }
 
 /** python3 with SciPy, or the reason there is none. */
@@ -184,10 +176,15 @@ export async function runBendingBench(say: (line?: string) => void, options: { q
   say(`closed form f1…f${MODES}: ${closedHz.map((f) => f.toPrecision(6)).join(', ')} Hz (β₁L = ${betaL(1).toFixed(6)}, Blevins table 8-1: 1.875104)`)
 
   // a. The interactive size.
-  const interactive = timeBeam(1999, 20, options.quick ? 20 : 50)
+  const interactive = timeBeam(1999, 20, options.quick ? 20 : 50, true)
   say(
     `7a. 2,000 nodes (1,999 elements, ${2 * 1999} unknowns), ${MODES} modes, assembly + solve, warm: best ${fmt(interactive.bestMs)}, median ${fmt(interactive.medianMs)} of ${interactive.runs} runs; largest error of f1…f${MODES} against the closed form ${maxError(interactive.frequenciesHz).toExponential(1)}; Sturm check ${interactive.sturmPassed ? 'passed' : 'FAILED'}`,
   )
+  if (interactive.reference) {
+    say(
+      `    machine check: a fixed loop of 8 million multiply-adds, timed after each of those runs, took best ${fmt(interactive.reference.bestMs)}, median ${fmt(interactive.reference.medianMs)} (median/best ${(interactive.reference.medianMs / interactive.reference.bestMs).toFixed(2)}; the solve's ${(interactive.medianMs / interactive.bestMs).toFixed(2)}): on shared cores the spread is the machine's as much as the solver's`,
+    )
+  }
   results.interactive = { nodes: 2000, elements: 1999, modes: MODES, ...interactive, maxError: maxError(interactive.frequenciesHz) }
 
   // b. Against SciPy on the same pencil.
@@ -230,7 +227,7 @@ export async function runBendingBench(say: (line?: string) => void, options: { q
       const rodwaveError = maxError(rodwave.frequenciesHz)
       const peerError = peer?.errors ? Math.max(...peer.errors) : null
       say(
-        `${elements.toLocaleString('en-US').padStart(10)}${(2 * elements).toLocaleString('en-US').padStart(11)}${fmt(rodwave.medianMs).padStart(11)}${(peerMs !== null ? fmt(peerMs) : peer?.timedOut ? `> ${SCIPY_TIMEOUT_S} s` : '—').padStart(13)}${(ratio !== null ? `${ratio.toPrecision(2)}×` : ratioAtLeast !== null ? `> ${ratioAtLeast.toPrecision(2)}×` : '—').padStart(8)}${rodwaveError.toExponential(1).padStart(28)}${(peerError !== null ? peerError.toExponential(1) : '—').padStart(10)}`,
+        `${elements.toLocaleString('en-US').padStart(10)}${(2 * elements).toLocaleString('en-US').padStart(11)}${fmt(rodwave.medianMs).padStart(11)}${(peerMs !== null ? fmt(peerMs) : peer?.timedOut ? `> ${SCIPY_TIMEOUT_S} s` : '—').padStart(13)}${(ratio !== null ? `${ratio.toPrecision(2)}×` : ratioAtLeast !== null ? `>${Math.floor(ratioAtLeast)}×` : '—').padStart(8)}${rodwaveError.toExponential(1).padStart(28)}${(peerError !== null ? peerError.toExponential(1) : '—').padStart(10)}`,
       )
       if (peer?.failure) say(`    SciPy at ${elements.toLocaleString('en-US')} elements: ${peer.failure}`)
       rows.push({ elements, unknowns: 2 * elements, rodwave: { ...rodwave, maxError: rodwaveError }, scipy: peer, speedup: ratio, speedupAtLeast: ratioAtLeast })

@@ -323,11 +323,11 @@ export function beamFormsGram(data: BeamForms, vectors: readonly Float64Array[])
   const scale = layout.rotationScale
   const m = vectors.length
   const gram = new Float64Array(m * m)
-  if (preload === 0) elasticGram(data, vectors, gram)
-  // Per vector: d₁, d₂ (elastic strains) and s_a, Δw, s_b (geometric).
-  const strains = new Float64Array(5 * m)
-  for (let e = 0; preload !== 0 && e + 1 < xs.length; e++) {
-    const h = xs[e + 1] - xs[e]
+  // Per vector: d₁, d₂ (elastic strains), then s_a, Δw, s_b (geometric) when there is a preload.
+  const width = preload !== 0 ? 5 : 2
+  const strains = new Float64Array(width * m)
+  for (let e = 0; e + 1 < xs.length; e++) {
+    const hOverScale = (xs[e + 1] - xs[e]) / scale
     const f = FORM_SIZE * formOfInterval[e]
     const ia = 2 * e
     const iwa = index[ia], isa = index[ia + 1], iwb = index[ia + 2], isb = index[ia + 3] // prettier-ignore
@@ -336,27 +336,32 @@ export function beamFormsGram(data: BeamForms, vectors: readonly Float64Array[])
       const sa = isa >= 0 ? v[isa] : 0
       const sb = isb >= 0 ? v[isb] : 0
       const dw = (iwb >= 0 ? v[iwb] : 0) - (iwa >= 0 ? v[iwa] : 0)
-      strains[5 * j] = dw - (h * sa) / scale
-      strains[5 * j + 1] = sb - sa
-      strains[5 * j + 2] = sa
-      strains[5 * j + 3] = dw
-      strains[5 * j + 4] = sb
+      const at = width * j
+      strains[at] = dw - hOverScale * sa
+      strains[at + 1] = sb - sa
+      if (width === 5) {
+        strains[at + 2] = sa
+        strains[at + 3] = dw
+        strains[at + 4] = sb
+      }
     }
     const k11 = forms[f], k12 = forms[f + 1], k22 = forms[f + 2] // prettier-ignore
     for (let i = 0; i < m; i++) {
-      const x1 = strains[5 * i], x2 = strains[5 * i + 1] // prettier-ignore
+      const x1 = strains[width * i], x2 = strains[width * i + 1] // prettier-ignore
       // The form applied to vector i's strains, then dotted with each vector j ≥ i.
       const g1 = k11 * x1 + k12 * x2
       const g2 = k12 * x1 + k22 * x2
-      let p1 = 0, p2 = 0, p3 = 0 // prettier-ignore
-      if (preload !== 0) {
-        const sa = strains[5 * i + 2], dw = strains[5 * i + 3], sb = strains[5 * i + 4] // prettier-ignore
-        p1 = preload * (forms[f + 3] * sa + forms[f + 4] * dw + forms[f + 5] * sb)
-        p2 = preload * (forms[f + 4] * sa + forms[f + 6] * dw + forms[f + 7] * sb)
-        p3 = preload * (forms[f + 5] * sa + forms[f + 7] * dw + forms[f + 8] * sb)
+      const row = i * m
+      if (width === 2) {
+        for (let j = i; j < m; j++) gram[row + j] += g1 * strains[2 * j] + g2 * strains[2 * j + 1]
+        continue
       }
+      const sa = strains[5 * i + 2], dw = strains[5 * i + 3], sb = strains[5 * i + 4] // prettier-ignore
+      const p1 = preload * (forms[f + 3] * sa + forms[f + 4] * dw + forms[f + 5] * sb)
+      const p2 = preload * (forms[f + 4] * sa + forms[f + 6] * dw + forms[f + 7] * sb)
+      const p3 = preload * (forms[f + 5] * sa + forms[f + 7] * dw + forms[f + 8] * sb)
       for (let j = i; j < m; j++) {
-        gram[i * m + j] += g1 * strains[5 * j] + g2 * strains[5 * j + 1] + p1 * strains[5 * j + 2] + p2 * strains[5 * j + 3] + p3 * strains[5 * j + 4]
+        gram[row + j] += g1 * strains[5 * j] + g2 * strains[5 * j + 1] + p1 * strains[5 * j + 2] + p2 * strains[5 * j + 3] + p3 * strains[5 * j + 4]
       }
     }
   }
@@ -377,37 +382,4 @@ export function beamFormsGram(data: BeamForms, vectors: readonly Float64Array[])
     out.push(row)
   }
   return out
-}
-
-/** The elastic part of beamFormsGram (no preload): two strains per vector and element, added into gram (upper triangle). */
-function elasticGram(data: BeamForms, vectors: readonly Float64Array[], gram: Float64Array): void {
-  const { layout, index, forms, formOfInterval } = data
-  const xs = layout.x
-  const scale = layout.rotationScale
-  const m = vectors.length
-  const first = new Float64Array(m)
-  const second = new Float64Array(m)
-  for (let e = 0; e + 1 < xs.length; e++) {
-    const hOverScale = (xs[e + 1] - xs[e]) / scale
-    const f = FORM_SIZE * formOfInterval[e]
-    const ia = 2 * e
-    const iwa = index[ia], isa = index[ia + 1], iwb = index[ia + 2], isb = index[ia + 3] // prettier-ignore
-    for (let j = 0; j < m; j++) {
-      const v = vectors[j]
-      const sa = isa >= 0 ? v[isa] : 0
-      const sb = isb >= 0 ? v[isb] : 0
-      const dw = (iwb >= 0 ? v[iwb] : 0) - (iwa >= 0 ? v[iwa] : 0)
-      first[j] = dw - hOverScale * sa
-      second[j] = sb - sa
-    }
-    const k11 = forms[f], k12 = forms[f + 1], k22 = forms[f + 2] // prettier-ignore
-    for (let i = 0; i < m; i++) {
-      const x1 = first[i]
-      const x2 = second[i]
-      const g1 = k11 * x1 + k12 * x2
-      const g2 = k12 * x1 + k22 * x2
-      const row = i * m
-      for (let j = i; j < m; j++) gram[row + j] += g1 * first[j] + g2 * second[j]
-    }
-  }
 }

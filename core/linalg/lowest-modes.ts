@@ -462,7 +462,9 @@ function solveLevel(pencil: BandPencil, modes: number, context: Context, warm?: 
     found = []
     const slicer = new SpectrumSlicer(level, rigidBodyModes)
     for (let j = 1; j <= elastic; j++) {
-      const bracket = slicer.isolate(rigidBodyModes + j, 0.02)
+      // Isolated and within 25 %: the bracket keeps the iteration on its mode, and a narrower one
+      // costs more bisection counts than the Rayleigh quotient steps it saves.
+      const bracket = slicer.isolate(rigidBodyModes + j, 0.25)
       const start = 0.5 * (bracket.lower + bracket.upper)
       found.push(refineMode(level, randomVector(n, context.random), start, bracket, nearbyVectors(found, start)))
     }
