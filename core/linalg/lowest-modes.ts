@@ -18,7 +18,10 @@
  * A free–free chain (all stiffness row sums zero) has one rigid-body mode, λ = 0 with a
  * constant shape; it is set exactly and the elastic modes are kept M-orthogonal to it.
  * A beam (two unknowns per node, `layout`) is coarsened by Hermite interpolation instead
- * (beam-coarsening.ts), and its rigid-body motions are given by the layout.
+ * (beam-coarsening.ts), and its rigid-body motions are given by the layout. Its fine levels
+ * start each mode at the coarse value, accept it after one step when the Kato–Temple bound
+ * allows, and project onto all the level's modes with the strain-form K (refineClusters);
+ * modes that no longer change with the mesh keep the coarse level's values (settledPrefix).
  */
 import { seededRandom, type RandomSource } from '../random'
 import { coarseningMap, coarsenPencil, interpolateSmooth } from './galerkin-coarsening'
@@ -422,8 +425,9 @@ function solveLevel(pencil: BandPencil, modes: number, context: Context, warm?: 
       return start
     })
   } else if (layout && n >= 4 * minimumCoarseOrder(total + 1)) {
-    // Beams coarsen by 4 at every level: a fine level that can no longer count its lowest modes
-    // keeps them from the level below (settledPrefix), whose discretisation error must be small.
+    // Beams coarsen by 4 (by 16 onto the last level, beamCoarseningRatio): a fine level that can no
+    // longer count its lowest modes keeps them from the level below (settledPrefix), whose
+    // discretisation error must be small.
     const ratio = beamCoarseningRatio(n, total)
     const map = beamCoarsening(layout, ratio)
     const coarsePencil = coarsenBeamLevel(pencil, map)
