@@ -5,7 +5,6 @@
 import { analyseProject } from '../core/analysis/modal-analysis'
 import { readProjectDocument } from '../core/model/project-schema'
 
-export { analyseProject } from '../core/analysis/modal-analysis'
 export { assembleFamily } from '../core/fe/assemble'
 export { familyOf } from '../core/model/families'
 export { readProjectDocument } from '../core/model/project-schema'

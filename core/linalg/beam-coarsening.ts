@@ -217,16 +217,7 @@ export function coarsenBeamMass(mass: SymmetricBandMatrix, map: BeamCoarsening):
   const x = fine.x
   const n = mass.order
   const b1 = mass.offDiagonals[0], b2 = mass.offDiagonals[1], b3 = mass.offDiagonals[2] // prettier-ignore
-  const r = mass.rowSums
-  // The diagonal from the row sums (band entries past the end are 0).
-  const diagonal = new Float64Array(n)
-  for (let i = 0; i < n; i++) {
-    let sum = r[i] - b1[i] - b2[i] - b3[i]
-    if (i >= 1) sum -= b1[i - 1]
-    if (i >= 2) sum -= b2[i - 2]
-    if (i >= 3) sum -= b3[i - 3]
-    diagonal[i] = sum
-  }
+  const diagonal = Float64Array.from({ length: n }, (_, i) => diagonalEntry(mass, i))
   // M_ij (0 where either unknown is removed), i and j at most 3 apart.
   const entry = (i: number, j: number): number => {
     if (i < 0 || j < 0) return 0
@@ -309,11 +300,6 @@ export function coarsenBeamMass(mass: SymmetricBandMatrix, map: BeamCoarsening):
 /** Pᵀ K P and Pᵀ M P entry by entry (pencils without strain forms). */
 export function coarsenBeamPencil(pencil: BandPencil, map: BeamCoarsening): BandPencil {
   return { stiffness: galerkinProduct(pencil.stiffness, map), mass: galerkinProduct(pencil.mass, map) }
-}
-
-/** Pᵀ A P entry by entry, for checking coarsenBeamMass. */
-export function galerkinProductForTests(a: SymmetricBandMatrix, map: BeamCoarsening): SymmetricBandMatrix {
-  return galerkinProduct(a, map)
 }
 
 /** x_fine = P x_coarse: the coarse mode as a cubic Hermite curve through the fine nodes, interval by interval. */
