@@ -143,6 +143,8 @@ interface RefinedMode {
   value: number
   converged: boolean
   vector: Float64Array
+  /** Accepted after one step on the strength of the Ritz step that follows (refineMode, verifyAndRepair). */
+  awaitsRitz?: boolean
 }
 
 /**
@@ -643,10 +645,22 @@ function refineMode(level: Level, x: Float64Array, startValue: number, bracket: 
     // eigenvalue nearest it is within r²/separation, r² = xᵀMx/yᵀMy − (ρₛ − σ)² the squared M⁻¹-norm
     // residual of y at ρₛ (as (K − σM)y = Mx; T. Kato, J. Phys. Soc. Japan 4 (1949), from memory).
     // Then ρₛ is the value, and orthogonalising y to locked modes can only lower its error.
+    // On fine meshes that residual is often the factorisation's round-off (about ε‖K‖ along this
+    // mode), which further steps do not remove; they only confirm the quotient. After the first
+    // step from a Galerkin start (σ its quotient) the start's own error is bounded instead: it holds
+    // e_j of mode j with Σ e_j²(λ_j − λ) = σ − λ, the step scales e_j by δ/(λ_j − σ), δ² = xᵀMx/yᵀMy,
+    // so what is left costs the value at most (σ − ρₛ)δ²/separation². Far below the tolerance, the
+    // mode is taken as it is: the round-off's share of the neighbours is what the Ritz step over all
+    // modes found removes (refineClusters, run on beams by verifyAndRepair, which goes on with the
+    // mode if that step cannot be made).
     if (!bracket && separation > 0 && pencil.beamForms && step.yMy > 0 && Number.isFinite(step.rayleigh)) {
       const residual2 = step.xMx / step.yMy - (step.rayleigh - sigma) ** 2
-      if (residual2 <= STALLED_QUOTIENT * Math.abs(step.rayleigh) * separation) {
+      const settled = residual2 <= STALLED_QUOTIENT * Math.abs(step.rayleigh) * separation
+      const beyond = (Math.abs(sigma - step.rayleigh) * (step.xMx / step.yMy)) / (separation * separation)
+      const awaitsRitz = !settled && iteration === 0 && startIsQuotient && beyond <= 0.01 * STALLED_QUOTIENT * Math.abs(step.rayleigh)
+      if (settled || awaitsRitz) {
         if (keep.length) orthogonalise(level, x, keep, keepM)
+        if (awaitsRitz) return { value: step.rayleigh, converged: true, vector: x, awaitsRitz }
         value = step.rayleigh
         converged = true
         largest = NaN
@@ -831,8 +845,18 @@ function verifyAndRepair(
   const indices = [...accepted.keys()].sort((a, b) => a - b)
   const finalValues = indices.map((i) => accepted.get(i)!.value)
   const finalVectors = indices.map((i) => accepted.get(i)!.vector)
+  if (!refineClusters(level, finalValues, finalVectors)) {
+    // Modes taken after one step on the strength of the Ritz step (refineMode) go on alone without it.
+    indices.forEach((index, j) => {
+      const mode = accepted.get(index)!
+      if (!mode.awaitsRitz) return
+      const near = finalVectors.filter((_, k) => k !== j && Math.abs(finalValues[k] - mode.value) <= 1e-2 * Math.abs(mode.value))
+      const again = refineMode(level, mode.vector, mode.value, null, near, true)
+      finalValues[j] = again.value
+      if (!again.converged) mode.converged = false
+    })
+  }
   const converged = indices.every((i, j) => accepted.get(i)!.converged && (j === 0 || finalValues[j] > finalValues[j - 1]))
-  refineClusters(level, finalValues, finalVectors)
   // The counts already taken still vouch for the modes when nothing was redone and the Ritz values
   // stayed strictly inside the intervals counted.
   const reusable = redo.length === 0 && m === elastic && finalValues.every((v, i) => v > bounds[i] && v < bounds[i + 1])
@@ -852,12 +876,13 @@ const CLUSTER_GAP = 1e-4
  * cluster's invariant subspace far better than its individual vectors (their angle errors
  * grow as 1/gap); the small projected problem separates them again, with residuals at round-off.
  */
-function refineClusters(level: Level, values: number[], vectors: Float64Array[]): void {
+function refineClusters(level: Level, values: number[], vectors: Float64Array[]): boolean {
   const { pencil, context } = level
   // A beam's factorisations carry round-off of about ε‖K‖, which leaves each iterate a little of
   // its neighbours (the quotient a little high); the projection onto all the modes found, with the
   // energy form's accurate K, removes that: one cluster of every mode.
   const whole = !!pencil.beamForms
+  let projected = whole
   let first = 0
   while (first < values.length) {
     let last = first
@@ -871,6 +896,7 @@ function refineClusters(level: Level, values: number[], vectors: Float64Array[])
       } catch {
         // Dependent vectors (the same mode found twice) cannot be separated by projection;
         // the Sturm check that follows judges them.
+        projected = false
         first = last + 1
         continue
       }
@@ -883,6 +909,7 @@ function refineClusters(level: Level, values: number[], vectors: Float64Array[])
     }
     first = last + 1
   }
+  return projected
 }
 
 /** G_ij = v_iᵀ M v_j, each pair once (G is symmetric by construction). */
@@ -901,44 +928,51 @@ function symmetricMassGram(level: Level, vectors: readonly Float64Array[]): numb
   return gram
 }
 
+/** Rows per block of combineInPlace: the block's old values of ten vectors (20 KB) stay in the L1 cache. */
+const COMBINE_BLOCK = 256
+let combineScratch = new Float64Array(0)
+
 /**
- * vectors[j] ← Σ_c coefficients[j][c] · vectors[c] for all j at once, row by row (each row's old
- * values read before any is written), so no vector is allocated and each is swept once. Returns
- * each new vector's entry largest in magnitude, with its sign.
+ * vectors[j] ← Σ_c coefficients[j][c] · vectors[c] for all j at once, block of rows by block of
+ * rows: the block's old values are copied aside, then each new vector's block is summed from
+ * them three sources per sweep, so no vector is allocated and the inner loops are plain
+ * multiply-adds over cached rows. Returns each new vector's entry largest in magnitude, with its sign.
  */
 function combineInPlace(vectors: Float64Array[], coefficients: readonly ArrayLike<number>[]): Float64Array {
   const m = vectors.length
-  const flat = new Float64Array(m * m)
-  coefficients.forEach((row, j) => {
-    for (let c = 0; c < m; c++) flat[j * m + c] = row[c]
-  })
-  const old = new Float64Array(m)
-  const largest = new Float64Array(m)
   const n = vectors[0].length
-  for (let i = 0; i < n; i++) {
-    for (let c = 0; c < m; c++) old[c] = vectors[c][i]
-    // Two outputs per pass over the row's old values.
-    let j = 0
-    for (; j + 1 < m; j += 2) {
-      let first = 0
-      let second = 0
-      const a = j * m
-      const b = a + m
-      for (let c = 0; c < m; c++) {
-        const v = old[c]
-        first += flat[a + c] * v
-        second += flat[b + c] * v
-      }
-      vectors[j][i] = first
-      vectors[j + 1][i] = second
-      if (Math.abs(first) > Math.abs(largest[j])) largest[j] = first
-      if (Math.abs(second) > Math.abs(largest[j + 1])) largest[j + 1] = second
+  if (combineScratch.length < m * COMBINE_BLOCK) combineScratch = new Float64Array(m * COMBINE_BLOCK)
+  const old = combineScratch
+  const largest = new Float64Array(m)
+  for (let start = 0; start < n; start += COMBINE_BLOCK) {
+    const length = Math.min(COMBINE_BLOCK, n - start)
+    for (let c = 0; c < m; c++) {
+      const v = vectors[c]
+      const at = c * COMBINE_BLOCK
+      for (let i = 0; i < length; i++) old[at + i] = v[start + i]
     }
-    if (j < m) {
-      let sum = 0
-      for (let c = 0; c < m; c++) sum += flat[j * m + c] * old[c]
-      vectors[j][i] = sum
-      if (Math.abs(sum) > Math.abs(largest[j])) largest[j] = sum
+    for (let j = 0; j < m; j++) {
+      const row = coefficients[j]
+      const out = vectors[j]
+      // The first sweep writes (one, two or three sources), the later ones add three at a time.
+      const first = Math.min(3, m)
+      const a = row[0], b = first > 1 ? row[1] : 0, d = first > 2 ? row[2] : 0 // prettier-ignore
+      const o1 = first > 1 ? COMBINE_BLOCK : 0, o2 = first > 2 ? 2 * COMBINE_BLOCK : 0 // prettier-ignore
+      for (let i = 0; i < length; i++) out[start + i] = a * old[i] + b * old[o1 + i] + d * old[o2 + i]
+      let c = first
+      for (; c + 2 < m; c += 3) {
+        const p = row[c], q = row[c + 1], r = row[c + 2] // prettier-ignore
+        const o = c * COMBINE_BLOCK
+        for (let i = 0; i < length; i++) out[start + i] += p * old[o + i] + q * old[o + COMBINE_BLOCK + i] + r * old[o + 2 * COMBINE_BLOCK + i]
+      }
+      for (; c < m; c++) {
+        const p = row[c]
+        const o = c * COMBINE_BLOCK
+        for (let i = 0; i < length; i++) out[start + i] += p * old[o + i]
+      }
+      let big = largest[j]
+      for (let i = 0; i < length; i++) if (Math.abs(out[start + i]) > Math.abs(big)) big = out[start + i]
+      largest[j] = big
     }
   }
   return largest
