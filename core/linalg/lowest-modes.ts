@@ -247,6 +247,17 @@ function settledLevel(level: Level, map: ReturnType<typeof beamCoarsening>, coar
 /** Relative change of a Rayleigh quotient between two steps below which it has converged (energy-form pencils). */
 const STALLED_QUOTIENT = 1e-13
 
+/** A beam's quotient that stays within this (relative) over QUOTIENT_BAND_STEPS steps has reached its round-off floor (refineMode). */
+const QUOTIENT_BAND = 1e-8
+const QUOTIENT_BAND_STEPS = 4
+
+/** Whether the last QUOTIENT_BAND_STEPS quotients (oldest first) all lie within QUOTIENT_BAND of each other, relative to the last. */
+export function wanderingWithinBand(quotients: readonly number[]): boolean {
+  if (quotients.length < QUOTIENT_BAND_STEPS) return false
+  const last = quotients.slice(-QUOTIENT_BAND_STEPS)
+  return Math.max(...last) - Math.min(...last) <= QUOTIENT_BAND * Math.abs(last[last.length - 1])
+}
+
 /** Modes refined together in one pair of sweeps on tridiagonal levels. */
 const BLOCK_WIDTH = 4
 
@@ -626,6 +637,7 @@ function refineMode(level: Level, x: Float64Array, startValue: number, bracket: 
   let previousRho = startIsQuotient ? startValue : NaN
   let massNorm2 = NaN
   let largest = NaN
+  const recent: number[] = []
   const maxIterations = bracket ? 80 : 10
   // A beam's quotient comes from its energy form, accurate where the bracket's Sturm counts (from
   // the assembled K) are blurred by about COUNT_NOISE·ε·λ_max: the bracket is trusted to that.
@@ -703,6 +715,16 @@ function refineMode(level: Level, x: Float64Array, startValue: number, bracket: 
     // K, stalls at its round-off (about ε‖K‖): a quotient that no longer moves has converged.
     const inBracket = !bracket || (rho > bracket.lower - slack && rho < bracket.upper + slack)
     if (identified && inBracket && pencil.beamForms && Math.abs(rho - previousRho) <= STALLED_QUOTIENT * Math.abs(rho)) {
+      converged = true
+      break
+    }
+    // Or it wanders, step after step, within a band far below any use: on fine meshes with a stubby
+    // segment or a rotary inertia, round-off in each step's solve can keep it moving by 1e-9 or so.
+    // Under the iteration's cubic convergence a quotient still converging cannot stay in such a band
+    // for QUOTIENT_BAND_STEPS steps without settling to STALLED_QUOTIENT first.
+    recent.push(rho)
+    if (recent.length > QUOTIENT_BAND_STEPS) recent.shift()
+    if (identified && inBracket && pencil.beamForms && wanderingWithinBand(recent)) {
       converged = true
       break
     }
