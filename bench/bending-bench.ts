@@ -106,26 +106,24 @@ function median(values: number[]): number {
   return s.length % 2 ? s[m] : 0.5 * (s[m - 1] + s[m])
 }
 
+/** The q-quantile, nearest rank. */
+function percentile(values: number[], q: number): number {
+  const s = [...values].sort((a, b) => a - b)
+  return s[Math.min(s.length - 1, Math.max(0, Math.ceil(q * s.length) - 1))]
+}
+
 const fmt = (ms: number) => (ms >= 1000 ? `${(ms / 1000).toFixed(2)} s` : `${ms.toFixed(ms < 10 ? 2 : 1)} ms`)
 
 interface Timed {
   readonly bestMs: number
   readonly medianMs: number
+  /** 10th, 25th, 75th and 90th percentiles of the runs. */
+  readonly percentilesMs: { readonly p10: number; readonly p25: number; readonly p75: number; readonly p90: number }
   readonly runs: number
   readonly frequenciesHz: number[]
   readonly sturmPassed: boolean
   /** The fixed reference loop timed between the runs (bending-engine.ts), when asked for. */
   readonly reference?: { readonly bestMs: number; readonly medianMs: number }
-  /** The runs whose reference loops, before and after, took at most 1.1 × the loop's best: the machine at its fastest. */
-  readonly atFullSpeed?: { readonly runs: number; readonly medianMs: number }
-}
-
-/** Runs 1 … n − 1 each lie between reference loops r − 1 and r (the last has none after it). */
-function runsAtFullSpeed(times: number[], referenceTimes: number[]): { runs: number; medianMs: number } | undefined {
-  if (!referenceTimes.length) return undefined
-  const limit = 1.1 * Math.min(...referenceTimes)
-  const kept = times.filter((_, r) => r >= 1 && referenceTimes[r - 1] <= limit && (r >= referenceTimes.length || referenceTimes[r] <= limit))
-  return kept.length ? { runs: kept.length, medianMs: median(kept) } : undefined
 }
 
 /**
@@ -139,15 +137,14 @@ function timeBeam(elements: number, warmups: number, runs: number, withReference
   })
   const timed = JSON.parse(out) as { times: number[]; referenceTimes: number[]; frequenciesHz: number[]; sturmPassed: boolean }
   const reference = timed.referenceTimes.length ? { bestMs: Math.min(...timed.referenceTimes), medianMs: median(timed.referenceTimes) } : undefined
-  const atFullSpeed = runsAtFullSpeed(timed.times, timed.referenceTimes)
   return {
     bestMs: Math.min(...timed.times),
     medianMs: median(timed.times),
+    percentilesMs: { p10: percentile(timed.times, 0.1), p25: percentile(timed.times, 0.25), p75: percentile(timed.times, 0.75), p90: percentile(timed.times, 0.9) },
     runs,
     frequenciesHz: timed.frequenciesHz,
     sturmPassed: timed.sturmPassed,
     ...(reference ? { reference } : {}),
-    ...(atFullSpeed ? { atFullSpeed } : {}),
   }
 }
 
@@ -197,17 +194,12 @@ export async function runBendingBench(say: (line?: string) => void, options: { q
   // a. The interactive size.
   const interactive = timeBeam(1999, 20, options.quick ? 20 : 100, true)
   say(
-    `7a. 2,000 nodes (1,999 elements, ${2 * 1999} unknowns), ${MODES} modes, assembly + solve, warm: best ${fmt(interactive.bestMs)}, median ${fmt(interactive.medianMs)} of ${interactive.runs} runs; largest error of f1…f${MODES} against the closed form ${maxError(interactive.frequenciesHz).toExponential(1)}; Sturm check ${interactive.sturmPassed ? 'passed' : 'FAILED'}`,
+    `7a. 2,000 nodes (1,999 elements, ${2 * 1999} unknowns), ${MODES} modes, assembly + solve, warm: best ${fmt(interactive.bestMs)}, median ${fmt(interactive.medianMs)} of ${interactive.runs} runs (10/25/75/90th percentiles ${[interactive.percentilesMs.p10, interactive.percentilesMs.p25, interactive.percentilesMs.p75, interactive.percentilesMs.p90].map(fmt).join(' / ')}); largest error of f1…f${MODES} against the closed form ${maxError(interactive.frequenciesHz).toExponential(1)}; Sturm check ${interactive.sturmPassed ? 'passed' : 'FAILED'}`,
   )
   if (interactive.reference) {
     say(
       `    machine check: a fixed loop of 8 million multiply-adds, timed after each of those runs, took best ${fmt(interactive.reference.bestMs)}, median ${fmt(interactive.reference.medianMs)} (median/best ${(interactive.reference.medianMs / interactive.reference.bestMs).toFixed(2)}; the solve's ${(interactive.medianMs / interactive.bestMs).toFixed(2)}): on shared cores the spread is the machine's as much as the solver's`,
     )
-    if (interactive.atFullSpeed) {
-      say(
-        `    the ${interactive.atFullSpeed.runs} runs with the loop within 10 % of its best just before and after them: median ${fmt(interactive.atFullSpeed.medianMs)}`,
-      )
-    }
   }
   results.interactive = { nodes: 2000, elements: 1999, modes: MODES, ...interactive, maxError: maxError(interactive.frequenciesHz) }
 
