@@ -7,7 +7,7 @@
 import { describe, expect, test } from 'vitest'
 import { CholeskyDecomposition, EigenvalueDecomposition, Matrix, solve } from 'ml-matrix'
 import { createBandMatrix, bandToDense, multiplyBand, bilinearForm, type SymmetricBandMatrix } from '../../core/linalg/symmetric-band-matrix'
-import { checkLowestEigenvalues, lowestModes, wanderingWithinBand } from '../../core/linalg/lowest-modes'
+import { checkLowestEigenvalues, lowestModes } from '../../core/linalg/lowest-modes'
 import { sturmCounts, type BandPencil } from '../../core/linalg/shifted-ldlt'
 import { seededRandom } from '../../core/random'
 import { expectRelative } from '../helpers'
@@ -228,24 +228,5 @@ describe('structure', () => {
     expect(result.statistics.levels).toBeGreaterThan(1)
     for (let i = 0; i < 4; i++) expectRelative(result.eigenvalues[i], dense[i], 1e-9, `λ${i + 1}`)
     expectValidModes(pencil, result.eigenvalues, result.vectors, 'multilevel')
-  })
-})
-
-describe('the round-off floor of a beam quotient (wanderingWithinBand)', () => {
-  // Rayleigh quotient iteration converges cubically (B. N. Parlett, The Symmetric Eigenvalue
-  // Problem, ch. 4, from memory): a converging quotient's changes shrink at once, so only a
-  // quotient moved by round-off stays in a narrow band for four steps.
-  test('a converging sequence is not taken for a floor, even when its last steps have settled', () => {
-    expect(wanderingWithinBand([1.02, 1 + 1e-2, 1 + 1e-6, 1 + 1e-18])).toBe(false)
-    expect(wanderingWithinBand([1 + 3e-4, 1 + 1e-11, 1, 1])).toBe(false)
-  })
-  test('a quotient wandering by a few 1e-9 for four steps has reached its floor', () => {
-    expect(wanderingWithinBand([1 + 5e-9, 1 - 3e-9, 1 + 2e-9, 1 - 1e-9])).toBe(true)
-    // Only the last four count.
-    expect(wanderingWithinBand([2, 1 + 5e-9, 1 - 3e-9, 1 + 2e-9, 1 - 1e-9])).toBe(true)
-  })
-  test('a wider wander, or fewer than four steps, is not', () => {
-    expect(wanderingWithinBand([1 + 3e-8, 1 - 3e-8, 1 + 3e-8, 1 - 3e-8])).toBe(false)
-    expect(wanderingWithinBand([1, 1, 1])).toBe(false)
   })
 })
