@@ -5,6 +5,7 @@
  */
 import type { ElementOrder, Project } from '../model/project'
 import { SAME_POSITION, segmentBoundaries } from '../model/geometry'
+import { intervalHolding } from '../sorted-search'
 
 export interface MeshElement {
   readonly segment: number
@@ -168,12 +169,7 @@ export function elementAt(mesh: Mesh, position: number): number {
 
 /** Index of the node nearest to a position (binary search on the sorted coordinates). */
 export function nearestNode(x: Float64Array, position: number): number {
-  let lo = 0
-  let hi = x.length - 1
-  while (hi - lo > 1) {
-    const mid = (lo + hi) >> 1
-    if (x[mid] <= position) lo = mid
-    else hi = mid
-  }
+  const lo = intervalHolding(x, position)
+  const hi = lo + 1
   return Math.abs(x[hi] - position) < Math.abs(x[lo] - position) ? hi : lo
 }

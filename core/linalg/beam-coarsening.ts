@@ -12,6 +12,7 @@
  */
 import { createBandMatrix, diagonalEntry, type SymmetricBandMatrix } from './symmetric-band-matrix'
 import type { BandPencil } from './shifted-ldlt'
+import { intervalHolding } from '../sorted-search'
 
 /** The unknowns of a beam level: nodes in order, each with w and s = ℓθ unless an end condition removes it. */
 export interface BeamLayout {
@@ -136,13 +137,7 @@ export function prolongationRow(map: BeamCoarsening, fineUnknown: number): { coa
   }
   if (node < 0) throw new RangeError(`fine unknown ${fineUnknown} is not in the layout`)
   // The coarse interval holding the node (the last one for the last node).
-  let lo = 0
-  let hi = picked.length - 1
-  while (hi - lo > 1) {
-    const mid = (lo + hi) >> 1
-    if (picked[mid] <= node) lo = mid
-    else hi = mid
-  }
+  const lo = intervalHolding(picked, node)
   const a = picked[lo]
   const b = picked[lo + 1]
   const span = fine.x[b] - fine.x[a]
