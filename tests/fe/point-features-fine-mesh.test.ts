@@ -44,17 +44,13 @@ function frequencies(elements: number): { values: number[]; converged: boolean; 
   return { values: analysis.modes.map((m) => m.frequencyHz), converged: analysis.converged, sturm: analysis.sturm.passed }
 }
 
-/** The first roots of the antisymmetric frequency equation (scaled by cosh βa), by bisection. */
-function antisymmetricHz(count: number): number[] {
-  const EI = E * INERTIA
-  const a = L / 2
-  const k = SPRING / 2
-  const g = (b: number) => (2 * EI * b * Math.sin(b * a) * Math.sinh(b * a) + k * (Math.sin(b * a) * Math.cosh(b * a) - Math.cos(b * a) * Math.sinh(b * a))) / Math.cosh(b * a)
+/** The first roots of g(β) = 0, by a scan in steps of 0.001 and bisection, as frequencies. */
+function rootsHz(g: (beta: number) => number, count: number): number[] {
   const out: number[] = []
-  for (let x = 0.5; out.length < count; x += 0.01) {
-    if (Math.sign(g(x)) === Math.sign(g(x + 0.01))) continue
+  for (let x = 0.01; out.length < count; x += 0.001) {
+    if (Math.sign(g(x)) === Math.sign(g(x + 0.001))) continue
     let lo = x
-    let hi = x + 0.01
+    let hi = x + 0.001
     for (let i = 0; i < 200; i++) {
       const mid = 0.5 * (lo + hi)
       if (Math.sign(g(mid)) === Math.sign(g(lo))) lo = mid
@@ -66,8 +62,18 @@ function antisymmetricHz(count: number): number[] {
   return out
 }
 
+const HALF = L / 2
+const RHO_A = RHO * AREA
+
+/**
+ * The antisymmetric frequency equation divided by EI and scaled by cosh βa, for a midspan
+ * rotational stiffness k(β): 2β sin βa sinh βa + (k/2EI)(sin βa cosh βa − cos βa sinh βa) = 0.
+ */
+const antisymmetricEquation = (stiffness: (beta: number) => number) => (b: number) =>
+  (2 * b * Math.sin(b * HALF) * Math.sinh(b * HALF) + (stiffness(b) / (2 * E * INERTIA)) * (Math.sin(b * HALF) * Math.cosh(b * HALF) - Math.cos(b * HALF) * Math.sinh(b * HALF))) / Math.cosh(b * HALF)
+
 describe('a rotational spring at midspan of a fine pinned–pinned mesh (closed forms)', () => {
-  const antisymmetric = antisymmetricHz(5)
+  const antisymmetric = rootsHz(antisymmetricEquation(() => SPRING), 5)
   const symmetric = [1, 3, 5, 7, 9].map((n) => ((n * Math.PI) / L) ** 2 / (2 * Math.PI) * WAVE)
   // The ten lowest modes interleave the two families.
   const expected = [...antisymmetric, ...symmetric].sort((p, q) => p - q)
@@ -112,39 +118,19 @@ function massFrequencies(elements: number): { values: number[]; converged: boole
   return { values: analysis.modes.map((m) => m.frequencyHz), converged: analysis.converged, sturm: analysis.sturm.passed }
 }
 
-/** The first roots of g(β) = 0, by a scan in steps of 0.001 and bisection, as frequencies. */
-function rootsHz(g: (beta: number) => number, count: number): number[] {
-  const out: number[] = []
-  for (let x = 0.01; out.length < count; x += 0.001) {
-    if (Math.sign(g(x)) === Math.sign(g(x + 0.001))) continue
-    let lo = x
-    let hi = x + 0.001
-    for (let i = 0; i < 200; i++) {
-      const mid = 0.5 * (lo + hi)
-      if (Math.sign(g(mid)) === Math.sign(g(lo))) lo = mid
-      else hi = mid
-    }
-    const beta = 0.5 * (lo + hi)
-    out.push(((beta * beta) / (2 * Math.PI)) * WAVE)
-  }
-  return out
-}
-
-const HALF = L / 2
-const RHO_A = RHO * AREA
 const symmetricEquation = (mass: number) => (b: number) => 2 * Math.cos(b * HALF) - ((mass * b) / (2 * RHO_A)) * (Math.sin(b * HALF) - Math.cos(b * HALF) * Math.tanh(b * HALF))
-const antisymmetricEquation = (inertia: number) => (b: number) =>
-  (2 * b * Math.sin(b * HALF) * Math.sinh(b * HALF) - ((b ** 4 * inertia) / (2 * RHO_A)) * (Math.sin(b * HALF) * Math.cosh(b * HALF) - Math.cos(b * HALF) * Math.sinh(b * HALF))) / Math.cosh(b * HALF)
+// A rotary inertia J acts as the rotational stiffness −ω²J = −β⁴·EI·J/ρA.
+const rotaryInertia = (inertia: number) => (b: number) => -(b ** 4) * ((E * INERTIA * inertia) / RHO_A)
 
 describe('a point mass with rotary inertia at midspan of a fine pinned–pinned mesh (closed forms)', () => {
   const symmetric = rootsHz(symmetricEquation(POINT_MASS), 6)
-  const antisymmetric = rootsHz(antisymmetricEquation(ROTARY_INERTIA), 6)
+  const antisymmetric = rootsHz(antisymmetricEquation(rotaryInertia(ROTARY_INERTIA)), 6)
   const expected = [...symmetric, ...antisymmetric].sort((p, q) => p - q).slice(0, 10)
   const bareHz = (n: number) => ((n * Math.PI) / L) ** 2 / (2 * Math.PI) * WAVE
 
   test('the frequency equations: the bare beam as m, J → 0, and the Rayleigh estimate of the first mode', () => {
     const bareSymmetric = rootsHz(symmetricEquation(0), 2)
-    const bareAntisymmetric = rootsHz(antisymmetricEquation(0), 2)
+    const bareAntisymmetric = rootsHz(antisymmetricEquation(rotaryInertia(0)), 2)
     expectRelative(bareSymmetric[0], bareHz(1), 1e-12, 'n = 1')
     expectRelative(bareSymmetric[1], bareHz(3), 1e-12, 'n = 3')
     expectRelative(bareAntisymmetric[0], bareHz(2), 1e-12, 'n = 2')
