@@ -23,7 +23,9 @@
  * allows (or, below the level's top mode, when the start's remaining error is estimated far
  * below the tolerance: refineMode), and project onto all the level's modes with the strain-form
  * K (refineClusters);
- * modes that no longer change with the mesh keep the coarse level's values (settledPrefix).
+ * modes that no longer change with the mesh keep the coarse level's values (settledPrefix), and so
+ * does a level whose round-off lifts its quotients above the coarse values, their Galerkin upper
+ * bounds, by more than the mesh could still gain (overshootsCoarse).
  */
 import { seededRandom, type RandomSource } from '../random'
 import { coarseningMap, coarsenPencil, interpolateSmooth } from './galerkin-coarsening'
@@ -39,6 +41,7 @@ import {
 } from './inverse-iteration'
 import {
   allocateFactorization,
+  eigenvalueScale,
   factorShifted,
   pencilNorms,
   stiffnessForm,
@@ -177,12 +180,11 @@ function settledPrefix(pencil: BandPencil, coarse: LevelResult, elastic: number,
   const previous = coarse.previousValues
   const previousRatio = coarse.ratio
   if (!previous || !previousRatio || !coarse.converged || !coarse.sturm.passed) return 0
-  const norms = pencilNorms(pencil)
-  const largest = norms.stiffness / norms.mass
+  const largest = eigenvalueScale(pencil)
   let k = 0
   while (k < Math.min(elastic, coarse.values.length) && previous[k] !== undefined) {
     const value = coarse.values[k]
-    const change = ((previous[k] - value) * (1 - ratio ** -4)) / (previousRatio ** 4 - 1)
+    const change = predictedChange(coarse, k, ratio)
     const noise = (Number.EPSILON * largest) / Math.abs(value)
     const roundOff = 1e-8 * noise * noise
     const countable = value > 2 * COUNT_NOISE * Number.EPSILON * largest
@@ -192,14 +194,49 @@ function settledPrefix(pencil: BandPencil, coarse: LevelResult, elastic: number,
   return k
 }
 
+/** The change of coarse mode k from the coarse level to this one, from the h⁴ law (see settledPrefix); NaN without two coarser levels. */
+function predictedChange(coarse: LevelResult, k: number, ratio: number): number {
+  const previous = coarse.previousValues
+  if (!previous || !coarse.ratio || previous[k] === undefined) return NaN
+  return ((previous[k] - coarse.values[k]) * (1 - ratio ** -4)) / (coarse.ratio ** 4 - 1)
+}
+
+/**
+ * Relative amount by which a refined beam level's eigenvalue may exceed the coarse level's before
+ * the excess is taken for round-off: the coarse pencil is PᵀKP, PᵀMP, so in exact arithmetic no
+ * eigenvalue of this level lies above the coarse one, and the energy-form quotients on both are
+ * accurate to about 1e-15.
+ */
+const GALERKIN_OVERSHOOT = 1e-12
+
+/**
+ * Whether a refined beam level did worse than the coarse level it was refined from: some of its
+ * values exceed the coarse ones (their Galerkin upper bounds) by more than GALERKIN_OVERSHOOT, the
+ * round-off of its iterates (a point inertia on a fine mesh, whose row of M dwarfs the others, can
+ * leave 1e-9), while the h⁴ law says refining moves every mode by less than that excess. The coarse
+ * level's modes are then the better answer for this mesh, as for a settled level.
+ */
+function overshootsCoarse(values: readonly number[], from: number, coarse: LevelResult, elastic: number, ratio: number): boolean {
+  if (!coarse.converged || !coarse.sturm.passed) return false
+  let excess = 0
+  for (let j = 0; j < values.length && from + j < coarse.values.length; j++) {
+    excess = Math.max(excess, (values[j] - coarse.values[from + j]) / Math.abs(coarse.values[from + j]))
+  }
+  if (!(excess > GALERKIN_OVERSHOOT)) return false
+  for (let k = 0; k < elastic; k++) {
+    const change = predictedChange(coarse, k, ratio)
+    if (!(Math.abs(change) <= excess * Math.abs(coarse.values[k]))) return false
+  }
+  return true
+}
+
 /** Sturm counts below COUNT_NOISE·ε·λ_max are decided by round-off in K's factorisation. */
 const COUNT_NOISE = 100
 
 /** A shift between the last settled mode and the first one to refine, above the counts' noise; null when there is none. */
 function floorShift(pencil: BandPencil, lastSettled: number, nextCoarse: number | undefined): number | null {
   if (nextCoarse === undefined) return null
-  const norms = pencilNorms(pencil)
-  const shift = Math.max(0.5 * (lastSettled + nextCoarse), COUNT_NOISE * Number.EPSILON * (norms.stiffness / norms.mass))
+  const shift = Math.max(0.5 * (lastSettled + nextCoarse), COUNT_NOISE * Number.EPSILON * eigenvalueScale(pencil))
   return shift < 0.9 * nextCoarse && shift > lastSettled ? shift : null
 }
 
@@ -237,8 +274,8 @@ function settledLevel(level: Level, map: ReturnType<typeof beamCoarsening>, coar
     values,
     vectors,
     nextEstimate: coarse.values[elastic] ?? coarse.nextEstimate,
-    rigidBodyModes: level.locked.length,
-    rigidVectors: level.locked,
+    rigidBodyModes: level.rigidCount,
+    rigidVectors: level.locked.slice(0, level.rigidCount),
     sturm,
     converged: coarse.converged,
     previousValues: coarse.values,
@@ -417,6 +454,8 @@ function solveLevel(pencil: BandPencil, modes: number, context: Context, warm?: 
   // Beam levels refined from a coarser one: its values and the ratio, for the next level's settling test.
   let previousValues: number[] | undefined
   let levelRatio: number | undefined
+  // A beam level refined from a coarser one: that level and the map, in case this one does worse (overshootsCoarse).
+  let beamCoarse: { map: ReturnType<typeof beamCoarsening>; coarse: LevelResult; ratio: number } | null = null
   // Beam levels whose lowest modes settled on the coarser level: those modes, and the counted floor above them.
   let settledAbove: { modes: { values: number[]; vectors: Float64Array[] }; floor: { shift: number; count: number } } | null = null
   if (warm) {
@@ -462,6 +501,7 @@ function solveLevel(pencil: BandPencil, modes: number, context: Context, warm?: 
     nextEstimate = coarse.values.length > elastic ? coarse.values[elastic] : null
     previousValues = coarse.values
     levelRatio = ratio
+    if (pencil.beamForms) beamCoarse = { map, coarse, ratio }
   } else if (n >= 4 * minimumCoarseOrder(total + 1)) {
     const map = coarseningMap(n, coarseningRatio(n, total))
     const coarse = solveLevel(coarsenPencil(pencil, map), total + 1, context)
@@ -481,6 +521,11 @@ function solveLevel(pencil: BandPencil, modes: number, context: Context, warm?: 
   }
   found.sort((a, b) => a.value - b.value)
   const kept = settledAbove ? settledAbove.modes.values.length : 0
+  // Checked before the repairs too, which on such a level would spend their bisections in vain.
+  if (beamCoarse && overshootsCoarse(found.map((m) => m.value), kept, beamCoarse.coarse, elastic, beamCoarse.ratio)) {
+    returnBlockWork(0, level.block)
+    return settledLevel(level, beamCoarse.map, beamCoarse.coarse, elastic, beamCoarse.ratio)
+  }
   const checked = settledAbove
     ? verifyAndRepair(level, found, rigidBodyModes + kept, elastic - kept, nextEstimate, settledAbove.floor)
     : verifyAndRepair(level, found, rigidBodyModes, elastic, nextEstimate)
@@ -489,6 +534,7 @@ function solveLevel(pencil: BandPencil, modes: number, context: Context, warm?: 
   for (const v of checked.vectors) normaliseAndOrient(pencil, v, context.vectorInfo.get(v))
   const values = settledAbove ? [...settledAbove.modes.values, ...checked.values] : checked.values
   const vectors = settledAbove ? [...settledAbove.modes.vectors, ...checked.vectors] : checked.vectors
+  if (beamCoarse && overshootsCoarse(values, 0, beamCoarse.coarse, elastic, beamCoarse.ratio)) return settledLevel(level, beamCoarse.map, beamCoarse.coarse, elastic, beamCoarse.ratio)
   if (settledAbove) context.settledLevels++
   return { ...checked, values, vectors, nextEstimate, rigidBodyModes, rigidVectors, ...(previousValues ? { previousValues, ratio: levelRatio } : {}) }
 }
@@ -642,8 +688,7 @@ function refineMode(
   const maxIterations = bracket ? 80 : 10
   // A beam's quotient comes from its energy form, accurate where the bracket's Sturm counts (from
   // the assembled K) are blurred by about COUNT_NOISE·ε·λ_max: the bracket is trusted to that.
-  const norms = pencilNorms(pencil)
-  const slack = pencil.beamForms ? COUNT_NOISE * Number.EPSILON * (norms.stiffness / norms.mass) : 0
+  const slack = pencil.beamForms ? COUNT_NOISE * Number.EPSILON * eigenvalueScale(pencil) : 0
   for (let iteration = 0; iteration < maxIterations; iteration++) {
     const step = inverseIterationStepInPlace(pencil, sigma, x, level.scratch, factorizationOf(level), level.block)
     context.factorizations++

@@ -9,7 +9,7 @@
  * recovers each pivot as D_p = r_p − Σ_{j>p} A_pj. For a stiffness matrix at σ = 0
  * every term is then positive and nothing cancels.
  */
-import { bandInfinityNorm, bilinearForm, quadraticForm, type SymmetricBandMatrix } from './symmetric-band-matrix'
+import { bandInfinityNorm, bandRowNorms, bilinearForm, quadraticForm, type SymmetricBandMatrix } from './symmetric-band-matrix'
 import { beamFormsEnergy, type BeamForms } from './beam-energy'
 
 export interface BandPencil {
@@ -75,6 +75,37 @@ export function pivotFloor(pencil: BandPencil, shift: number): number {
 }
 
 const normCache = new WeakMap<BandPencil, { stiffness: number; mass: number }>()
+
+const scaleCache = new WeakMap<BandPencil, number>()
+
+/**
+ * ‖K‖∞ / ‖M‖∞ with each row of M capped at twice the largest row of the same unknown at the
+ * neighbouring nodes (a beam has two unknowns per node): about the mesh's largest eigenvalue, the
+ * scale of its round-off (ε·λ_max). A point mass or rotary inertia adds to one node's diagonal; it
+ * lowers the modes there, not the mesh's highest ones, yet a rotary inertia on a fine mesh can make
+ * its row of M 10⁹ times the others, so without the cap the scale, and every threshold set by it,
+ * would shrink as much. On a mesh without point features no row exceeds the cap and the ratio is
+ * ‖K‖∞ / ‖M‖∞ itself.
+ */
+export function eigenvalueScale(pencil: BandPencil): number {
+  let scale = scaleCache.get(pencil)
+  if (scale === undefined) {
+    const mass = pencil.mass
+    const stride = pencil.beamForms ? 2 : 1
+    const rows = bandRowNorms(mass)
+    let largest = 0
+    for (let i = 0; i < rows.length; i++) {
+      const before = i - stride >= 0 ? rows[i - stride] : 0
+      const after = i + stride < rows.length ? rows[i + stride] : 0
+      const neighbours = Math.max(before, after)
+      const row = neighbours > 0 ? Math.min(rows[i], 2 * neighbours) : rows[i]
+      if (row > largest) largest = row
+    }
+    scale = pencilNorms(pencil).stiffness / largest
+    scaleCache.set(pencil, scale)
+  }
+  return scale
+}
 
 /** ‖K‖∞ and ‖M‖∞, computed once per pencil. */
 export function pencilNorms(pencil: BandPencil): { stiffness: number; mass: number } {

@@ -200,9 +200,16 @@ export function bilinearForm(a: SymmetricBandMatrix, x: Float64Array, y: Float64
  * since |A_ii| ≤ |r_i| + Σ_{j≠i} |A_ij|. Used only to scale tolerances.
  */
 export function bandInfinityNorm(a: SymmetricBandMatrix): number {
-  if (a.halfBandwidth === 1) return tridiagonalInfinityNorm(a.order, a.rowSums, a.offDiagonals[0])
-  const n = a.order
+  const rows = bandRowNorms(a)
   let m = 0
+  for (let i = 0; i < rows.length; i++) if (rows[i] > m) m = rows[i]
+  return m
+}
+
+/** Each row's bound |r_i| + 2 Σ_{j≠i} |A_ij| of its 1-norm (see bandInfinityNorm). */
+export function bandRowNorms(a: SymmetricBandMatrix): Float64Array {
+  const n = a.order
+  const rows = new Float64Array(n)
   for (let i = 0; i < n; i++) {
     let s = Math.abs(a.rowSums[i])
     for (let d = 1; d <= a.halfBandwidth; d++) {
@@ -210,21 +217,9 @@ export function bandInfinityNorm(a: SymmetricBandMatrix): number {
       if (i + d < n) s += 2 * Math.abs(band[i])
       if (i - d >= 0) s += 2 * Math.abs(band[i - d])
     }
-    if (s > m) m = s
+    rows[i] = s
   }
-  return m
-}
-
-function tridiagonalInfinityNorm(n: number, rowSums: Float64Array, off: Float64Array): number {
-  let m = 0
-  let previous = 0
-  for (let i = 0; i < n; i++) {
-    const next = i + 1 < n ? Math.abs(off[i]) : 0
-    const s = Math.abs(rowSums[i]) + 2 * (previous + next)
-    if (s > m) m = s
-    previous = next
-  }
-  return m
+  return rows
 }
 
 /** Dense copy, for tests and small cross-checks only. */
