@@ -442,6 +442,7 @@ function assembleBending(project: Project, plane: BendingPlane, settings: Assemb
     forms: Float64Array.from(forms),
     formOfInterval: formOfElement,
     preload,
+    shearFlexible: theory === 'timoshenko',
     groundedStiffness: Float64Array.from({ length: springCount }, (_, g) => grounded[2 * g + 1]),
     groundedIndex: Int32Array.from({ length: 4 * springCount }, (_, p) => (p % 4 === 0 ? grounded[(p / 4) * 2] : -1)),
     groundedWeight: Float64Array.from({ length: 4 * springCount }, (_, p) => (p % 4 === 0 ? 1 : 0)),

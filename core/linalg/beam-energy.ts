@@ -25,6 +25,12 @@ export interface BeamForms {
   readonly formOfInterval: Int32Array
   /** Steady axial force, N (tension positive). */
   readonly preload: number
+  /**
+   * Timoshenko elements: the rotation is a field of its own, which the Hermite coarse levels (their
+   * rotation the slope of the deflection) cannot follow, so a coarse level's values stay above this
+   * mesh's by the shear's share however fine both are, and are never taken for them.
+   */
+  readonly shearFlexible: boolean
   /** Grounded terms k (Σ_p weight_p x[index_p])², up to four (index, weight) pairs each (index −1 unused). */
   readonly groundedStiffness: Float64Array
   readonly groundedIndex: Int32Array
@@ -177,6 +183,7 @@ export function coarsenBeamForms(fine: BeamForms, map: BeamCoarsening): BeamForm
     forms,
     formOfInterval: Int32Array.from({ length: intervals }, (_, i) => i),
     preload: fine.preload,
+    shearFlexible: fine.shearFlexible,
     groundedStiffness: fine.groundedStiffness,
     groundedIndex,
     groundedWeight,
