@@ -10,13 +10,13 @@
  * A warning does not stop the analysis; the results stand with the warning beside them.
  */
 import { bandInfinityNorm, type SymmetricBandMatrix } from '../linalg/symmetric-band-matrix'
-import { materialOf, meanSectionArea } from '../model/geometry'
+import { materialOf, meanSectionArea, snappedAttachments } from '../model/geometry'
 import { springMotion } from '../model/project'
 import { familyName } from '../model/families'
 import type { AnalysisWarning, FamilyAnalysis, ModalAnalysis } from './modal-analysis'
 
 export interface ModelWarning {
-  readonly code: 'residual' | 'orthogonality' | 'stiff-spring' | 'heavy-mass' | 'stiffness-range' | 'sliver-element' | 'sturm' | 'convergence' | AnalysisWarning['code']
+  readonly code: 'residual' | 'orthogonality' | 'stiff-spring' | 'heavy-mass' | 'stiffness-range' | 'sliver-element' | 'attachment-moved' | 'sturm' | 'convergence' | AnalysisWarning['code']
   readonly message: string
 }
 
@@ -299,6 +299,15 @@ function partWarnings(analysis: FamilyAnalysis): ModelWarning[] {
       })
     }
   })
+  for (const move of snappedAttachments(project)) {
+    const item = move.list === 'masses' ? project.masses[move.index] : project.springs[move.index]
+    const name = `${move.list === 'masses' ? 'Point mass' : 'Spring'} ${move.index + 1}${item.label ? ` (“${item.label}”)` : ''}`
+    const onto = move.onto === 'end' ? 'the end' : move.onto === 'joint' ? 'the segment joint' : 'another attachment'
+    warnings.push({
+      code: 'attachment-moved',
+      message: `${name} at ${+move.from.toPrecision(10)} m is analysed at ${+move.to.toPrecision(10)} m, ${onto} ${Math.abs(move.to - move.from).toExponential(1)} m away: attachments closer than 1/100,000 of the part's length to an end, a joint or another attachment are taken there, as an element that short would spoil the solution.`,
+    })
+  }
   let shortest = Infinity
   let longest = 0
   const { x, order, elementCount } = analysis.model.mesh

@@ -5,7 +5,7 @@
  * cone, or Timoshenko theory, has none (the reference is then extrapolated, family-reference.ts).
  */
 import type { BendingPlane } from '../model/families'
-import { SAME_POSITION, materialOf, sectionArea, segmentBoundaries } from '../model/geometry'
+import { SAME_POSITION, materialOf, sectionArea, segmentBoundaries, snapAttachments } from '../model/geometry'
 import { springMotion, type Project } from '../model/project'
 import { secondMoments } from '../model/section-properties'
 import type { BeamChain, BeamMember } from './beam-chain'
@@ -16,7 +16,8 @@ export function hasExactBending(project: Project): boolean {
 }
 
 /** The chain of one bending plane (call only where hasExactBending). */
-export function beamStationChain(project: Project, plane: BendingPlane): BeamChain {
+export function beamStationChain(given: Project, plane: BendingPlane): BeamChain {
+  const project = snapAttachments(given)
   const bounds = segmentBoundaries(project.segments)
   const length = bounds[bounds.length - 1]
   const snap = SAME_POSITION * length

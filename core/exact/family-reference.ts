@@ -16,7 +16,7 @@ import { exactReference } from './reference'
 import { exactBeamAngularFrequencies } from './beam-frequencies'
 import { beamStationChain, hasExactBending } from './beam-project'
 import { torsionExactReference, type TorsionChainInput } from './torsion-chain'
-import { materialOf } from '../model/geometry'
+import { materialOf, snapAttachments } from '../model/geometry'
 import { polarMoment, shearModulus, torsionConstant } from '../model/section-properties'
 
 export interface FamilyReference {
@@ -71,24 +71,56 @@ function referenceDensities(project: Project, settings: AnalysisSettings, family
   return [fine(1), fine(2)]
 }
 
-/** A Richardson estimate from the family's finite-element frequencies on two fine meshes (consistent mass). */
+/**
+ * A Richardson estimate from the family's finite-element frequencies on two fine meshes (consistent
+ * mass). A mesh whose solve fails its own checks (Sturm count, convergence) gives no reference: the
+ * pair is halved, down to the analysis mesh, until both pass; if none does, there is no reference,
+ * and the formulation says why.
+ */
 export function extrapolatedReference(project: Project, family: Family, settings: AnalysisSettings, count: number): FamilyReference {
-  const [coarse, fine] = referenceDensities(project, settings, family)
-  const solve = (s: AnalysisSettings) => analyseFamily(project, family, { ...s, modes: count }, { withReference: false }).modes.map((m) => m.frequencyHz)
-  const f1 = solve(coarse)
-  const f2 = solve(fine)
+  let [coarse, fine] = referenceDensities(project, settings, family)
+  const solve = (s: AnalysisSettings) => {
+    const analysis = analyseFamily(project, family, { ...s, modes: count }, { withReference: false })
+    return { frequenciesHz: analysis.modes.map((m) => m.frequencyHz), trusted: analysis.converged && analysis.sturm.passed }
+  }
+  let f2 = solve(fine)
+  let f1 = solve(coarse)
+  while (!(f1.trusted && f2.trusted)) {
+    const next = halved(coarse, settings)
+    if (!next) {
+      return {
+        method: null,
+        formulation: `no reference: the solves on the reference meshes (down to ${describe(coarse)}) did not pass their own checks (Sturm count and convergence)`,
+        frequenciesHz: [],
+      }
+    }
+    fine = coarse
+    f2 = f1
+    coarse = next
+    f1 = solve(coarse)
+  }
   // Hermite cubics and 3-node bars converge as h⁴ in frequency; the Timoshenko element, whose
   // shear strain is constant along each element, as h² (observed, and so checked in the tests).
   const timoshenko = family.motion === 'bending' && settings.bendingTheory === 'timoshenko'
   const order = timoshenko ? 2 : 4
   const factor = 1 / (2 ** order - 1)
-  const frequenciesHz = f2.map((f, i) => (f === 0 ? 0 : f + (f - (f1[i] ?? f)) * factor))
+  const frequenciesHz = f2.frequenciesHz.map((f, i) => (f === 0 ? 0 : f + (f - (f1.frequenciesHz[i] ?? f)) * factor))
   const elements = family.motion === 'bending' ? (timoshenko ? 'Timoshenko' : 'Hermite cubic') : '3-node'
   return {
     method: 'extrapolated',
     formulation: `Richardson extrapolation (order ${order}) of ${elements} elements at ${describe(coarse)} and ${describe(fine)}`,
     frequenciesHz,
   }
+}
+
+/** The mesh half as fine as `s`, or null where that would be coarser than the analysis mesh. */
+function halved(s: AnalysisSettings, analysis: AnalysisSettings): AnalysisSettings | null {
+  if (s.elementsPerSegment !== undefined) {
+    const half = s.elementsPerSegment / 2
+    return Number.isInteger(half) && half >= (analysis.elementsPerSegment ?? 1) ? { ...s, elementsPerSegment: half } : null
+  }
+  const longer = (s.maxElementLength as number) * 2
+  return longer <= (analysis.maxElementLength as number) * (1 + 1e-12) ? { ...s, maxElementLength: longer } : null
 }
 
 function describe(s: AnalysisSettings): string {
@@ -108,7 +140,8 @@ export function designFrequencies(project: Project, family: Family, settings: An
 }
 
 /** A project's torsion as the exact chain reads it: G, J and Ip of each segment, disks and torsional springs. */
-export function torsionInput(project: Project): TorsionChainInput {
+export function torsionInput(given: Project): TorsionChainInput {
+  const project = snapAttachments(given)
   return {
     segments: project.segments.map((segment) => {
       const material = materialOf(project, segment)

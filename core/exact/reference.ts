@@ -5,7 +5,7 @@
  * `formulation` says which. A model outside both would get method null.
  */
 import type { Project } from '../model/project'
-import { SAME_POSITION, materialOf, sectionArea, totalLength } from '../model/geometry'
+import { SAME_POSITION, materialOf, sectionArea, snapAttachments, totalLength } from '../model/geometry'
 import { tipMassRoots, tipSpringRoots, uniformBarFrequencies } from './closed-form'
 import { buildStationChain, type ChainSegment } from './station-chain'
 import { exactAngularFrequencies, type StationChain } from './wittrick-williams'
@@ -44,7 +44,8 @@ export function chainReference(chain: StationChain, count: number): ExactReferen
 }
 
 /** Lowest `count` exact natural frequencies, Hz. */
-export function exactReference(project: Project, count: number): ExactReference {
+export function exactReference(given: Project, count: number): ExactReference {
+  const project = snapAttachments(given)
   const closed = closedFormReference(project, count)
   if (closed) return closed
   return chainReference(stationChain(project), count)

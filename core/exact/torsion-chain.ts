@@ -55,12 +55,17 @@ function requirePositive(value: number, field: string, unit: string): void {
   }
 }
 
-function requireAttachment(at: number, value: number, length: number, field: string, unit: string, allowZero: boolean): void {
-  if (!(typeof at === 'number' && Number.isFinite(at) && at >= 0 && at <= length)) {
-    throw new TorsionInputError(`${field}.at must lie on the shaft, between 0 and ${length} m, got ${String(at).slice(0, 60)}`)
+/**
+ * `item` is the attachment's path (disks[0]), `name` its value's field. The end is matched as the
+ * project file's check matches it, to 1e-12 of the length: a sum of segment lengths such as
+ * 0.6 + 0.9 + 0.4 + 0.3 comes out a rounding below the 2.2 a user writes for a disk at the end.
+ */
+function requireAttachment(at: number, value: number, length: number, item: string, name: string, unit: string, allowZero: boolean): void {
+  if (!(typeof at === 'number' && Number.isFinite(at) && at >= 0 && at <= length * (1 + 1e-12))) {
+    throw new TorsionInputError(`${item}.at must lie on the shaft, between 0 and ${+length.toPrecision(12)} m, got ${String(at).slice(0, 60)}`)
   }
   if (!(typeof value === 'number' && Number.isFinite(value) && (allowZero ? value >= 0 : value > 0))) {
-    throw new TorsionInputError(`${field} must be a ${allowZero ? 'non-negative' : 'positive'} number (${unit}), got ${String(value).slice(0, 60)}`)
+    throw new TorsionInputError(`${item}.${name} must be a ${allowZero ? 'non-negative' : 'positive'} number (${unit}), got ${String(value).slice(0, 60)}`)
   }
 }
 
@@ -77,8 +82,8 @@ export function torsionStationChain(input: TorsionChainInput): StationChain {
     requirePositive(s.diameterRatio, `segments[${i}].diameterRatio`, 'd_end/d_start, 1 for a prismatic segment')
     length += s.length
   })
-  input.disks.forEach((d, i) => requireAttachment(d.at, d.polarInertia, length, `disks[${i}].polarInertia`, 'kg·m²', false))
-  input.springs.forEach((s, i) => requireAttachment(s.at, s.stiffness, length, `springs[${i}].stiffness`, 'N·m/rad', false))
+  input.disks.forEach((d, i) => requireAttachment(d.at, d.polarInertia, length, `disks[${i}]`, 'polarInertia', 'kg·m²', false))
+  input.springs.forEach((s, i) => requireAttachment(s.at, s.stiffness, length, `springs[${i}]`, 'stiffness', 'N·m/rad', false))
   for (const end of ['start', 'end'] as const) {
     if (input.ends[end] !== 'fixed' && input.ends[end] !== 'free') throw new TorsionInputError(`ends.${end} must be "fixed" or "free" for torsion`)
   }

@@ -4,7 +4,7 @@
  * equal elements of the chosen order.
  */
 import type { ElementOrder, Project } from '../model/project'
-import { SAME_POSITION, segmentBoundaries } from '../model/geometry'
+import { SAME_POSITION, segmentBoundaries, snapAttachments } from '../model/geometry'
 import { intervalHolding } from '../sorted-search'
 
 export interface MeshElement {
@@ -60,7 +60,8 @@ export interface MeshDensity {
 }
 
 /** Segment pieces between attachments, and the number of elements each gets (the mesher's own rule). */
-function meshPlan(project: Pick<Project, 'segments' | 'masses' | 'springs'>, density: MeshDensity): { segment: number; from: number; to: number; count: number }[] {
+function meshPlan(given: Pick<Project, 'segments' | 'masses' | 'springs'>, density: MeshDensity): { segment: number; from: number; to: number; count: number }[] {
+  const project = snapAttachments(given)
   const bounds = segmentBoundaries(project.segments)
   const length = bounds[bounds.length - 1]
   const snap = SAME_POSITION * length
@@ -91,7 +92,8 @@ export function countMeshElements(project: Pick<Project, 'segments' | 'masses' |
   return total
 }
 
-export function buildMesh(project: Pick<Project, 'segments' | 'masses' | 'springs'>, density: MeshDensity): Mesh {
+export function buildMesh(given: Pick<Project, 'segments' | 'masses' | 'springs'>, density: MeshDensity): Mesh {
+  const project = snapAttachments(given)
   const bounds = segmentBoundaries(project.segments)
   const plan = meshPlan(project, density)
   const order = density.order

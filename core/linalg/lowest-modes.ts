@@ -179,7 +179,7 @@ function coarsenBeamLevel(pencil: BandPencil, map: ReturnType<typeof beamCoarsen
 function settledPrefix(pencil: BandPencil, coarse: LevelResult, elastic: number, ratio: number): number {
   const previous = coarse.previousValues
   const previousRatio = coarse.ratio
-  if (!previous || !previousRatio || !coarse.converged || !coarse.sturm.passed || pencil.beamForms?.shearFlexible) return 0
+  if (!previous || !previousRatio || !coarse.sturm.passed || pencil.beamForms?.shearFlexible) return 0
   const largest = eigenvalueScale(pencil)
   let k = 0
   while (k < Math.min(elastic, coarse.values.length) && previous[k] !== undefined) {
@@ -188,7 +188,11 @@ function settledPrefix(pencil: BandPencil, coarse: LevelResult, elastic: number,
     const noise = (Number.EPSILON * largest) / Math.abs(value)
     const roundOff = 1e-8 * noise * noise
     const countable = value > 2 * COUNT_NOISE * Number.EPSILON * largest
-    if (!(Math.abs(change) <= Math.max(SETTLED, roundOff) * Math.abs(value)) && countable) break
+    // A coarse level that did not converge passes on only the modes this level cannot count at all:
+    // refining those here, with still more round-off, would lose them (the result still reports
+    // that the coarse level did not converge).
+    const settled = coarse.converged && Math.abs(change) <= Math.max(SETTLED, roundOff) * Math.abs(value)
+    if (!settled && countable) break
     k++
   }
   return k
@@ -459,7 +463,7 @@ function solveLevel(pencil: BandPencil, modes: number, context: Context, warm?: 
   // A beam level refined from a coarser one: that level and the map, in case this one does worse (overshootsCoarse).
   let beamCoarse: { map: ReturnType<typeof beamCoarsening>; coarse: LevelResult; ratio: number } | null = null
   // Beam levels whose lowest modes settled on the coarser level: those modes, and the counted floor above them.
-  let settledAbove: { modes: { values: number[]; vectors: Float64Array[] }; floor: { shift: number; count: number } } | null = null
+  let settledAbove: { modes: { values: number[]; vectors: Float64Array[] }; floor: { shift: number; count: number }; converged: boolean } | null = null
   if (warm) {
     const guesses = warm.vectors.slice(warm.rigidBodyModes)
     const count = Math.min(elastic, guesses.length)
@@ -494,7 +498,7 @@ function solveLevel(pencil: BandPencil, modes: number, context: Context, warm?: 
           level.locked.push(v)
           level.lockedM.push(multiplyBand(pencil.mass, v, new Float64Array(n)))
         }
-        settledAbove = { modes: keptOnly, floor: { shift, count: below } }
+        settledAbove = { modes: keptOnly, floor: { shift, count: below }, converged: coarse.converged }
       }
     }
     const skip = settledAbove ? settledCount : 0
@@ -538,7 +542,8 @@ function solveLevel(pencil: BandPencil, modes: number, context: Context, warm?: 
   const vectors = settledAbove ? [...settledAbove.modes.vectors, ...checked.vectors] : checked.vectors
   if (beamCoarse && overshootsCoarse(values, 0, beamCoarse.coarse, elastic, beamCoarse.ratio)) return settledLevel(level, beamCoarse.map, beamCoarse.coarse, elastic, beamCoarse.ratio)
   if (settledAbove) context.settledLevels++
-  return { ...checked, values, vectors, nextEstimate, rigidBodyModes, rigidVectors, ...(previousValues ? { previousValues, ratio: levelRatio } : {}) }
+  const converged = checked.converged && (!settledAbove || settledAbove.converged)
+  return { ...checked, values, vectors, converged, nextEstimate, rigidBodyModes, rigidVectors, ...(previousValues ? { previousValues, ratio: levelRatio } : {}) }
 }
 
 /**
@@ -687,6 +692,7 @@ function refineMode(
   let previousRho = startIsQuotient ? startValue : NaN
   let massNorm2 = NaN
   let largest = NaN
+  const quotients: number[] = []
   const maxIterations = bracket ? 80 : 10
   // A beam's quotient comes from its energy form, accurate where the bracket's Sturm counts (from
   // the assembled K) are blurred by about COUNT_NOISE·ε·λ_max: the bracket is trusted to that.
@@ -768,6 +774,18 @@ function refineMode(
       converged = true
       break
     }
+    // Round-off can also hold a beam's iteration in a cycle: the same few quotients over and over,
+    // each repeated to a few ε (a converging iteration never repeats itself). The cycle's spread is
+    // then the accuracy this level allows; its least quotient, the one least lifted by round-off, is kept.
+    quotients.push(rho)
+    if (identified && inBracket && pencil.beamForms) {
+      const least = quotientCycleMinimum(quotients)
+      if (least !== null) {
+        value = least
+        converged = true
+        break
+      }
+    }
     previousRho = rho
     previousBound = bound
     if (!inBracket) sigma = splitBracket(bracket!.lower, bracket!.upper)
@@ -775,6 +793,31 @@ function refineMode(
   }
   if (Number.isFinite(largest) && Number.isFinite(massNorm2)) context.vectorInfo.set(x, { massNorm2, largest })
   return { value, converged, vector: x }
+}
+
+/** Spread (relative) above which a repeating cycle of quotients is not accepted as converged. */
+const CYCLE_SPREAD = 1e-9
+
+/**
+ * The least quotient of a cycle the last quotients have entered: for a period p of 2 to 4, the
+ * last 2p quotients repeat with that period to 8ε, and spread by at most CYCLE_SPREAD. Null if none.
+ */
+function quotientCycleMinimum(quotients: readonly number[]): number | null {
+  const n = quotients.length
+  for (let period = 2; period <= 4; period++) {
+    if (n < 2 * period) break
+    let repeats = true
+    let least = Infinity
+    let most = -Infinity
+    for (let j = n - period; j < n; j++) {
+      const q = quotients[j]
+      if (!(Math.abs(q - quotients[j - period]) <= 8 * Number.EPSILON * Math.abs(q))) repeats = false
+      least = Math.min(least, q)
+      most = Math.max(most, q)
+    }
+    if (repeats && most - least <= CYCLE_SPREAD * Math.abs(most)) return least
+  }
+  return null
 }
 
 /** Bisection on Sturm counts with every sample kept, so brackets are shared between modes. */

@@ -80,11 +80,14 @@ describe('heavy masses: the ratio to the bar’s mass', () => {
 })
 
 describe('elements and sections', () => {
-  test('two attachments 1e-8 m apart make a sliver element: warned; 1e-4 m apart: not', () => {
-    const sliver = warningsOf({ masses: [{ at: 0.7, mass: 0.1 }], springs: [{ at: 0.7 + 1e-8, stiffness: 1e5 }] }).filter((w) => w.code === 'sliver-element')
-    expect(sliver.length).toBe(1)
-    expect(sliver[0].message).toMatch(/^The shortest element is 1\.0\d*e-8 m/)
-    expect(warningsOf({ masses: [{ at: 0.7, mass: 0.1 }], springs: [{ at: 0.7 + 1e-4, stiffness: 1e5 }] }).filter((w) => w.code === 'sliver-element')).toEqual([])
+  test('two attachments 1e-8 m apart: the second is analysed at the first, and the move is warned; 1e-4 m apart: neither', () => {
+    const near = warningsOf({ masses: [{ at: 0.7, mass: 0.1 }], springs: [{ at: 0.7 + 1e-8, stiffness: 1e5, label: 'guide' }] })
+    expect(near.filter((w) => w.code === 'sliver-element')).toEqual([])
+    const moved = near.filter((w) => w.code === 'attachment-moved')
+    expect(moved.length).toBe(1)
+    expect(moved[0].message).toMatch(/^Spring 1 \(“guide”\) at 0\.70000001 m is analysed at 0\.7 m, another attachment 1\.0e-8 m away/)
+    const apart = warningsOf({ masses: [{ at: 0.7, mass: 0.1 }], springs: [{ at: 0.7 + 1e-4, stiffness: 1e5 }] })
+    expect(apart.filter((w) => w.code === 'sliver-element' || w.code === 'attachment-moved')).toEqual([])
   })
 
   test('EA/L spanning more than 1e8 along the bar: warned with the span; 5e7: not', () => {

@@ -189,8 +189,8 @@ describe('torsion: attachments must lie on the shaft', () => {
   const input = (extra: Record<string, unknown>) => ({ segments: [shaft], disks: [], springs: [], ends: { start: 'fixed' as const, end: 'free' as const }, ...extra })
   test('a disk beyond the end, a spring before the start, a zero inertia: refused by field', () => {
     expect(() => torsionExactReference(input({ disks: [{ at: 1.5, polarInertia: 1 }] }), 1)).toThrow(TorsionInputError)
-    expect(() => torsionExactReference(input({ disks: [{ at: 1.5, polarInertia: 1 }] }), 1)).toThrow('disks[0].polarInertia.at must lie on the shaft, between 0 and 1 m, got 1.5')
-    expect(() => torsionExactReference(input({ springs: [{ at: -0.1, stiffness: 1 }] }), 1)).toThrow('springs[0].stiffness.at must lie on the shaft')
+    expect(() => torsionExactReference(input({ disks: [{ at: 1.5, polarInertia: 1 }] }), 1)).toThrow('disks[0].at must lie on the shaft, between 0 and 1 m, got 1.5')
+    expect(() => torsionExactReference(input({ springs: [{ at: -0.1, stiffness: 1 }] }), 1)).toThrow('springs[0].at must lie on the shaft')
     expect(() => torsionExactReference(input({ disks: [{ at: 0.5, polarInertia: 0 }] }), 1)).toThrow('disks[0].polarInertia must be a positive number (kg·m²), got 0')
     expect(() => torsionExactReference(input({ springs: [{ at: 0.5, stiffness: Number.NaN }] }), 1)).toThrow('springs[0].stiffness must be a positive number (N·m/rad), got NaN')
   })
@@ -199,5 +199,13 @@ describe('torsion: attachments must lie on the shaft', () => {
     // Tip disk J_d on a fixed–free shaft: λ tan λ = ρI_pL/J_d (the torsional twin of §2); the disk at the fixed end does nothing.
     const lambda = bisect((x) => x * Math.tan(x) - (7850 * 1e-8 * 1) / 1e-3, 1e-9, Math.PI / 2 - 1e-12)
     expectRelative(f, (lambda * Math.sqrt(80e9 / 7850)) / (2 * Math.PI), 1e-12, 'f₁ with a tip disk')
+  })
+  test('a disk at the end of a shaft of several segments, at the length as written (2.2 m), though 0.6 + 0.9 + 0.4 + 0.3 sums a rounding below it', () => {
+    expect(0.6 + 0.9 + 0.4 + 0.3).toBeLessThan(2.2)
+    const segments = [0.6, 0.9, 0.4, 0.3].map((length) => ({ ...shaft, length }))
+    const f = torsionExactReference(input({ segments, disks: [{ at: 2.2, polarInertia: 1e-3 }], springs: [] }), 1).frequenciesHz[0]
+    // The same tip disk equation with L = 2.2 m (the segments are alike).
+    const lambda = bisect((x) => x * Math.tan(x) - (7850 * 1e-8 * 2.2) / 1e-3, 1e-9, Math.PI / 2 - 1e-12)
+    expectRelative(f, (lambda * Math.sqrt(80e9 / 7850)) / (2 * 2.2 * Math.PI), 1e-12, 'f₁ with a tip disk')
   })
 })

@@ -238,7 +238,7 @@ describe('torsion input checks', () => {
     [{ segments: [{ ...good, torsionConstant: 0 }] }, /segments\[0\]\.torsionConstant must be a positive number/],
     [{ segments: [good, { ...good, polarMoment: Number.NaN }] }, /segments\[1\]\.polarMoment/],
     [{ segments: [{ ...good, diameterRatio: -2 }] }, /segments\[0\]\.diameterRatio/],
-    [{ segments: [good], disks: [{ at: 1.5, polarInertia: 1 }] }, /disks\[0\]\.polarInertia\.at must lie on the shaft/],
+    [{ segments: [good], disks: [{ at: 1.5, polarInertia: 1 }] }, /disks\[0\]\.at must lie on the shaft/],
     [{ segments: [good], springs: [{ at: 0.5, stiffness: -1 }] }, /springs\[0\]\.stiffness must be a positive number/],
     [{ segments: [] }, /at least one segment/],
     // A disk of no inertia or a spring of no stiffness is no attachment: refused, not ignored.
