@@ -103,6 +103,12 @@ interface Context {
   repairedModes: number
   levels: number
   settledLevels: number
+  /**
+   * Set when a mode was kept from a coarser level only because the finer one could not count it,
+   * with a predicted change above the tolerance: the result then says it did not converge. (Kept
+   * apart from each level's own flag, which decides whether the next level may build on it.)
+   */
+  uncountedChange: boolean
   readonly random: RandomSource
   readonly tolerance: number
 }
@@ -176,7 +182,7 @@ function coarsenBeamLevel(pencil: BandPencil, map: ReturnType<typeof beamCoarsen
  * uniform beams from 160 to 10 000 elements; the energy-form Rayleigh quotients keep it that
  * small), and a mode within the count's own noise (100 ε λ_max) cannot be refined at all.
  */
-function settledPrefix(pencil: BandPencil, coarse: LevelResult, elastic: number, ratio: number): number {
+function settledPrefix(pencil: BandPencil, coarse: LevelResult, elastic: number, ratio: number, context: Context): number {
   const previous = coarse.previousValues
   const previousRatio = coarse.ratio
   if (!previous || !previousRatio || !coarse.sturm.passed || pencil.beamForms?.shearFlexible) return 0
@@ -193,6 +199,9 @@ function settledPrefix(pencil: BandPencil, coarse: LevelResult, elastic: number,
     // that the coarse level did not converge).
     const settled = coarse.converged && Math.abs(change) <= Math.max(SETTLED, roundOff) * Math.abs(value)
     if (!settled && countable) break
+    // Kept whatever its predicted change, as this level cannot count it; but only a negligible
+    // change counts as converged (near buckling λ₁ can lie far below the count's noise).
+    if (!(Math.abs(change) <= Math.max(SETTLED, roundOff, context.tolerance) * Math.abs(value))) context.uncountedChange = true
     k++
   }
   return k
@@ -227,8 +236,7 @@ function overshootsCoarse(values: readonly number[], from: number, coarse: Level
     excess = Math.max(excess, (values[j] - coarse.values[from + j]) / Math.abs(coarse.values[from + j]))
   }
   if (!(excess > GALERKIN_OVERSHOOT)) return false
-  // The h⁴ law is the Hermite element's; a Timoshenko mesh (same forms) may converge as h², whose
-  // change over a ratio-4 step is 16 times larger: the margin keeps the coarse answer the better one.
+  // A margin of 16: the coarse values must be clearly the better answer, not just about as good.
   for (let k = 0; k < elastic; k++) {
     const change = predictedChange(coarse, k, ratio)
     if (!(16 * Math.abs(change) <= excess * Math.abs(coarse.values[k]))) return false
@@ -330,6 +338,7 @@ export function lowestModes(pencil: BandPencil, options: LowestModesOptions): Lo
     repairedModes: 0,
     levels: 0,
     settledLevels: 0,
+    uncountedChange: false,
     random: seededRandom(options.seed ?? 20261201),
     tolerance: options.tolerance ?? 1e-11,
   }
@@ -348,7 +357,7 @@ export function lowestModes(pencil: BandPencil, options: LowestModesOptions): Lo
     vectors,
     rigidBodyModes: result.rigidBodyModes,
     sturm: result.sturm,
-    converged: result.converged,
+    converged: result.converged && !context.uncountedChange,
     statistics: { levels: context.levels, factorizations: context.factorizations, repairedModes: context.repairedModes, settledLevels: context.settledLevels },
   }
 }
@@ -482,7 +491,7 @@ function solveLevel(pencil: BandPencil, modes: number, context: Context, warm?: 
     const map = beamCoarsening(layout, ratio)
     const coarsePencil = coarsenBeamLevel(pencil, map)
     const coarse = solveLevel(coarsePencil, total + 1, context, undefined, map.coarse)
-    const settledCount = pencil.beamForms ? settledPrefix(pencil, coarse, elastic, ratio) : 0
+    const settledCount = pencil.beamForms ? settledPrefix(pencil, coarse, elastic, ratio, context) : 0
     if (settledCount === elastic) {
       returnBlockWork(0, level.block)
       return settledLevel(level, map, coarse, elastic, ratio)

@@ -19,8 +19,13 @@ function shiftHz(lambda: number): number {
 
 export function sturmResultText(analysis: FamilyAnalysis): string {
   const last = analysis.sturm.shifts[analysis.sturm.shifts.length - 1]
+  const counted = analysis.sturm.countedUnknowns
+  const where =
+    counted !== undefined && counted < analysis.model.pencil.stiffness.order
+      ? ` (counted on the solver's coarser model of ${counted.toLocaleString('en-US')} unknowns, whose frequencies the finer mesh no longer changes; the full model's own counts would rest on round-off)`
+      : ''
   return analysis.sturm.passed
-    ? `Passed: no mode was missed. The discrete model has exactly ${analysis.modes.length} modes below ${formatFrequency(shiftHz(last ?? 0))} Hz, and each reported mode is the next one up.`
+    ? `Passed: no mode was missed. The discrete model has exactly ${analysis.modes.length} modes below ${formatFrequency(shiftHz(last ?? 0))} Hz${where}, and each reported mode is the next one up.`
     : 'Failed: the counts below do not confirm that every mode up to the last one reported was found. Do not rely on these results; refine the mesh or report the case.'
 }
 
