@@ -90,7 +90,7 @@ export function extrapolatedReference(project: Project, family: Family, settings
     if (!next) {
       return {
         method: null,
-        formulation: `no reference: the solves on the reference meshes (down to ${describe(coarse)}) did not pass their own checks (Sturm count and convergence)`,
+        formulation: `the solves on the reference meshes, down to ${describe(coarse)}, did not pass their own checks (Sturm count and convergence)`,
         frequenciesHz: [],
       }
     }

@@ -61,8 +61,8 @@ export function referenceText(analysis: FamilyAnalysis): string {
   if (reference.method === 'extrapolated') {
     return `Extrapolated (Richardson estimate from two fine meshes): ${escapeHtml(reference.formulation ?? 'two fine meshes')}. No exact solution is used for this family. The estimate f* = f<sub>2</sub> + (f<sub>2</sub> − f<sub>1</sub>)/(2<sup>p</sup> − 1) from meshes of size h and h/2 removes the leading discretisation error of order p, so it is far closer to the true frequency than the analysis mesh; it is still an estimate, not an exact value.`
   }
-  const why = reference.formulation ? ` (${escapeHtml(reference.formulation)})` : ''
-  return `No exact solution is available for this model${why}; the convergence study gives the error estimate.`
+  if (reference.formulation) return `No exact solution is available for this model, and no extrapolated one: ${escapeHtml(reference.formulation)}. The convergence study gives the error estimate.`
+  return 'No exact solution is available for this model; the convergence study gives the error estimate.'
 }
 
 export function referencePart(analysis: FamilyAnalysis): string {

@@ -12,6 +12,8 @@ import { analysedFamilies } from '../../core/model/families'
 import { effectiveSettings } from '../../core/analysis/modal-analysis'
 import type { Project } from '../../core/model/project'
 import { expectRelative, makeProject, STEEL } from '../helpers'
+import { referenceText } from '../../core/report/checks-section'
+import type { FamilyAnalysis } from '../../core/analysis/modal-analysis'
 
 const limit = vi.hoisted(() => ({ elementsPerSegment: Infinity }))
 
@@ -71,6 +73,9 @@ describe('the extrapolated reference uses only meshes whose solve passed its che
     const reference = referenceWith(39, 40)
     expect(reference.method).toBeNull()
     expect(reference.frequenciesHz).toEqual([])
-    expect(reference.formulation).toMatch(/^no reference: .*down to 40 elements per segment.*did not pass their own checks/)
+    expect(reference.formulation).toMatch(/^the solves on the reference meshes, down to 40 elements per segment, did not pass their own checks/)
+    // The report gives that reason in place of a reference method.
+    const text = referenceText({ reference, family: { motion: 'bending' } } as unknown as FamilyAnalysis)
+    expect(text).toBe(`No exact solution is available for this model, and no extrapolated one: ${reference.formulation}. The convergence study gives the error estimate.`)
   })
 })
