@@ -14,7 +14,7 @@
  * coarse levels kept such nodes, the settled modes there were off by up to 6e-7.
  */
 import { describe, expect, test } from 'vitest'
-import { analyseFamily, effectiveSettings } from '../../core/analysis/modal-analysis'
+import { analyseFamily, effectiveSettings, type FamilyAnalysis } from '../../core/analysis/modal-analysis'
 import { familyOf } from '../../core/model/families'
 import { readProjectDocument } from '../../core/model/project-schema'
 import { expectRelative } from '../helpers'
@@ -29,7 +29,11 @@ const AREA = (Math.PI / 4) * D * D
 const INERTIA = (Math.PI / 64) * D ** 4
 const WAVE = Math.sqrt((E * INERTIA) / (RHO * AREA))
 
-function frequencies(elements: number): { values: number[]; converged: boolean; sturm: boolean } {
+/**
+ * The bending family of a steel part: by default the uniform pinned–pinned beam above, 10 modes,
+ * consistent mass, Euler–Bernoulli; `part` replaces any top-level field of the document.
+ */
+function bending(elements: number, part: Record<string, unknown>, withReference = false, modes = 10): FamilyAnalysis {
   const read = readProjectDocument({
     format: 'rodwave',
     version: 2,
@@ -37,11 +41,15 @@ function frequencies(elements: number): { values: number[]; converged: boolean; 
     materials: [{ id: 'steel', youngsModulus: E, density: RHO, poissonRatio: 0.3 }],
     segments: [{ length: L, material: 'steel', section: { shape: 'solid', diameter: D } }],
     ends: { start: { bending: 'pinned' }, end: { bending: 'pinned' } },
-    springs: [{ at: L / 2, motion: 'bending', stiffness: 0, rotationalStiffness: SPRING }],
-    analysis: { elementsPerSegment: elements, modes: 10, mass: 'consistent', bendingTheory: 'euler-bernoulli' },
+    analysis: { elementsPerSegment: elements, modes, mass: 'consistent', bendingTheory: 'euler-bernoulli' },
+    ...part,
   })
   if (!read.ok) throw new Error(read.issues.map((i) => i.message).join('; '))
-  const analysis = analyseFamily(read.project, familyOf('bending'), effectiveSettings(read.project), { withReference: false })
+  return analyseFamily(read.project, familyOf('bending'), effectiveSettings(read.project), { withReference })
+}
+
+function frequencies(elements: number): { values: number[]; converged: boolean; sturm: boolean } {
+  const analysis = bending(elements, { springs: [{ at: L / 2, motion: 'bending', stiffness: 0, rotationalStiffness: SPRING }] })
   return { values: analysis.modes.map((m) => m.frequencyHz), converged: analysis.converged, sturm: analysis.sturm.passed }
 }
 
@@ -104,18 +112,7 @@ const POINT_MASS = 2 // kg, an invented clamp block
 const ROTARY_INERTIA = 0.001 // kg·m²
 
 function massFrequencies(elements: number): { values: number[]; converged: boolean; sturm: boolean; sturmText: string } {
-  const read = readProjectDocument({
-    format: 'rodwave',
-    version: 2,
-    motions: ['bending'],
-    materials: [{ id: 'steel', youngsModulus: E, density: RHO, poissonRatio: 0.3 }],
-    segments: [{ length: L, material: 'steel', section: { shape: 'solid', diameter: D } }],
-    ends: { start: { bending: 'pinned' }, end: { bending: 'pinned' } },
-    masses: [{ at: L / 2, mass: POINT_MASS, transverseInertia: ROTARY_INERTIA }],
-    analysis: { elementsPerSegment: elements, modes: 10, mass: 'consistent', bendingTheory: 'euler-bernoulli' },
-  })
-  if (!read.ok) throw new Error(read.issues.map((i) => i.message).join('; '))
-  const analysis = analyseFamily(read.project, familyOf('bending'), effectiveSettings(read.project), { withReference: false })
+  const analysis = bending(elements, { masses: [{ at: L / 2, mass: POINT_MASS, transverseInertia: ROTARY_INERTIA }] })
   return { values: analysis.modes.map((m) => m.frequencyHz), converged: analysis.converged, sturm: analysis.sturm.passed, sturmText: sturmResultText(analysis) }
 }
 
@@ -152,21 +149,9 @@ describe('a point mass with rotary inertia at midspan of a fine pinned–pinned 
   })
 
   test('the same mass typed 1 µm past the joint of two 0.65 m segments is analysed at the joint, as the closed forms put it: within 1e-10 at 5,000 elements per segment (once 2e-7 off with a 1-µm element beside the joint)', () => {
-    const read = readProjectDocument({
-      format: 'rodwave',
-      version: 2,
-      motions: ['bending'],
-      materials: [{ id: 'steel', youngsModulus: E, density: RHO, poissonRatio: 0.3 }],
-      segments: [
-        { length: L / 2, material: 'steel', section: { shape: 'solid', diameter: D } },
-        { length: L / 2, material: 'steel', section: { shape: 'solid', diameter: D } },
-      ],
-      ends: { start: { bending: 'pinned' }, end: { bending: 'pinned' } },
-      masses: [{ at: L / 2 + 1e-6, mass: POINT_MASS, transverseInertia: ROTARY_INERTIA }],
-      analysis: { elementsPerSegment: 5000, modes: 8, mass: 'consistent', bendingTheory: 'euler-bernoulli' },
-    })
-    if (!read.ok) throw new Error(read.issues.map((i) => i.message).join('; '))
-    const analysis = analyseFamily(read.project, familyOf('bending'), effectiveSettings(read.project), { withReference: true })
+    const half = { length: L / 2, material: 'steel', section: { shape: 'solid', diameter: D } }
+    const part = { segments: [half, half], masses: [{ at: L / 2 + 1e-6, mass: POINT_MASS, transverseInertia: ROTARY_INERTIA }] }
+    const analysis = bending(5000, part, true, 8)
     expect(analysis.sturm.passed).toBe(true)
     analysis.modes.forEach((m, i) => {
       expectRelative(m.frequencyHz, expected[i], 1e-10, `mode ${i + 1}`)
@@ -198,22 +183,13 @@ describe('a point mass with rotary inertia at midspan of a fine pinned–pinned 
  * in a cycle of the same few quotients, or keep a level from converging at all.
  */
 describe('a stepped beam with a point mass of large rotary inertia, 20,000 elements per segment (exact transfer-matrix solution)', () => {
-  function stepped(start: string, end: string, mass: number, at: number) {
-    const read = readProjectDocument({
-      format: 'rodwave',
-      version: 2,
-      motions: ['bending'],
-      materials: [{ id: 'steel', youngsModulus: E, density: RHO, poissonRatio: 0.3 }],
-      segments: [
-        { length: 0.6, material: 'steel', section: { shape: 'solid', diameter: 0.03 } },
-        { length: 0.9, material: 'steel', section: { shape: 'tube', outerDiameter: 0.025, innerDiameter: 0.017 } },
-      ],
-      ends: { start: { bending: start }, end: { bending: end } },
-      masses: [{ at, mass, transverseInertia: 0.05 }],
-      analysis: { elementsPerSegment: 20000, modes: 8, mass: 'consistent', bendingTheory: 'euler-bernoulli' },
-    })
-    if (!read.ok) throw new Error(read.issues.map((i) => i.message).join('; '))
-    return analyseFamily(read.project, familyOf('bending'), effectiveSettings(read.project), { withReference: true })
+  function stepped(start: string, end: string, mass: number, at: number): FamilyAnalysis {
+    const segments = [
+      { length: 0.6, material: 'steel', section: { shape: 'solid', diameter: 0.03 } },
+      { length: 0.9, material: 'steel', section: { shape: 'tube', outerDiameter: 0.025, innerDiameter: 0.017 } },
+    ]
+    const part = { segments, ends: { start: { bending: start }, end: { bending: end } }, masses: [{ at, mass, transverseInertia: 0.05 }] }
+    return bending(20000, part, true, 8)
   }
   test('pinned–pinned, 0.05 kg at the step: converged (a cycle of quotients is recognised as the limit), Sturm check passed, within 1e-10', () => {
     const analysis = stepped('pinned', 'pinned', 0.05, 0.6)
@@ -234,19 +210,7 @@ describe('near buckling, a mode the fine mesh cannot count (exact transfer-matri
     // λ₁ lies below the Sturm count's round-off noise on the finer levels, so the first mode is kept
     // from a coarser one, whose own change the h⁴ law puts at 5e-7: an approximation the result must
     // admit to (it once claimed convergence with f₁ 2.7e-7 off).
-    const read = readProjectDocument({
-      format: 'rodwave',
-      version: 2,
-      motions: ['bending'],
-      materials: [{ id: 'steel', youngsModulus: E, density: RHO, poissonRatio: 0.3 }],
-      segments: [{ length: L, material: 'steel', section: { shape: 'solid', diameter: D } }],
-      ends: { start: { bending: 'pinned' }, end: { bending: 'pinned' } },
-      preload: (-0.999 * Math.PI ** 2 * E * INERTIA) / L ** 2,
-      masses: [{ at: L / 2, mass: POINT_MASS }],
-      analysis: { elementsPerSegment: 2000, modes: 6, mass: 'consistent', bendingTheory: 'euler-bernoulli' },
-    })
-    if (!read.ok) throw new Error(read.issues.map((i) => i.message).join('; '))
-    const analysis = analyseFamily(read.project, familyOf('bending'), effectiveSettings(read.project), { withReference: true })
+    const analysis = bending(2000, { preload: (-0.999 * Math.PI ** 2 * E * INERTIA) / L ** 2, masses: [{ at: L / 2, mass: POINT_MASS }] }, true, 6)
     expect(analysis.reference.method).toBe('exact')
     expect(analysis.sturm.passed).toBe(true)
     expect(analysis.converged).toBe(false)
