@@ -123,6 +123,8 @@ function snapped(project: Attached): { project: Attached; moves: SnappedAttachme
   const springs = project.springs.map((sp, i) => ({ ...sp, at: place(sp.at, 'springs', i) }))
   hit = { project: moves.length ? { ...project, masses, springs } : project, moves }
   snappedCache.set(project, hit)
+  // The snapped project is its own snap (the mesher is handed it again).
+  if (hit.project !== project) snappedCache.set(hit.project, { project: hit.project, moves: [] })
   return hit
 }
 
